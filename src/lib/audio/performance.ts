@@ -1,0 +1,154 @@
+/**
+ * Turns the sounding notes of a lick into a timed performance for the browser player: swung
+ * eighths, a one-bar count-in and the chords voiced under the line. Pure (no audio, no clock) so
+ * that the timing can be tested; `Player.svelte` hands the events to Tone.js.
+ */
+import { Chord, Note } from 'tonal';
+
+/** The part of a sounding note the player needs (the transpose route's `notes[]`). */
+export interface PerformanceNote {
+	midi: number;
+	/** Onset in whole notes from the start of the tune. */
+	start: number;
+	/** Length in whole notes. */
+	duration: number;
+	/** The chord symbol in force, e.g. `Dm7`, or null. */
+	chord: string | null;
+}
+
+export interface PerformanceOptions {
+	/** Quarter-note beats per minute. */
+	bpm: number;
+	/** Long-to-short ratio of a pair of eighths; 1 is straight, 2 the triplet feel. */
+	swingRatio: number;
+	/** Beats in the count-in bar; 0 for none. */
+	countInBeats: number;
+}
+
+export interface PerformanceEvent {
+	part: 'melody' | 'chord' | 'click';
+	/** MIDI numbers sounding together. */
+	midi: number[];
+	/** Seconds from the start of playback. */
+	time: number;
+	/** Seconds. */
+	duration: number;
+	/** The first click of the count-in is accented. */
+	accent?: boolean;
+}
+
+export interface Performance {
+	events: PerformanceEvent[];
+	/** Seconds until the last sound ends. */
+	totalSeconds: number;
+}
+
+export class PerformanceError extends Error {
+	constructor(message: string) {
+		super(message);
+		this.name = 'PerformanceError';
+	}
+}
+
+/**
+ * Where a straight position (in beats) falls once eighths are swung: the first half of each beat
+ * stretches to r/(1+r) of it, the second half shrinks to 1/(1+r) (common practice: long =
+ * beat·r/(1+r), short = beat/(1+r)). Positions on the beat do not move.
+ * @example swingBeats(0.5, 2) // 0.6667: the off-beat eighth comes late
+ */
+export function swingBeats(beats: number, ratio: number): number {
+	if (!(ratio > 0) || !Number.isFinite(ratio)) {
+		throw new PerformanceError(`Swing ratio must be a positive number, got ${ratio}.`);
+	}
+	const whole = Math.floor(beats);
+	const f = beats - whole;
+	const long = ratio / (1 + ratio);
+	const swung = f <= 0.5 ? f * 2 * long : long + (f - 0.5) * 2 * (1 - long);
+	return whole + swung;
+}
+
+/**
+ * A shell voicing for a chord symbol: the root (or slash bass) low, then the third and seventh
+ * (sixth for 6 chords, fourth for sus) above it, the way a pianist's left hand sketches changes.
+ * Empty for a symbol that names no chord.
+ * @example shellVoicing('Dm7') // [38, 53, 60]: D2, F3, C4
+ */
+export function shellVoicing(symbol: string): number[] {
+	const [head, bassName] = symbol.split('/');
+	const chord = Chord.get(head.trim());
+	if (chord.empty || !chord.tonic) return [];
+	const bass = Note.midi(`${(bassName ?? chord.tonic).trim()}2`);
+	if (bass == null) return [];
+	const guide = (prefixes: string[]) => chord.intervals.find((i) => prefixes.includes(i[0]));
+	const third = guide(['3', '4']);
+	const seventh = guide(['7', '6']);
+	const upper = [third, seventh]
+		.filter((i): i is string => Boolean(i))
+		.map((i) => {
+			// Keep the guide tones between E3 and E4 (52..64), clear of the melody and the bass.
+			let n = Note.midi(Note.transpose(`${chord.tonic}2`, i)) ?? bass;
+			while (n < 52) n += 12;
+			while (n > 64) n -= 12;
+			return n;
+		});
+	return [bass, ...upper];
+}
+
+/**
+ * The timed events of a performance: count-in clicks, then the melody and its chords, all swung.
+ * @example buildPerformance([{ midi: 60, start: 0, duration: 0.125, chord: 'C7' }], { bpm: 120, swingRatio: 2, countInBeats: 4 }).totalSeconds // 2.333
+ */
+export function buildPerformance(
+	notes: readonly PerformanceNote[],
+	options: PerformanceOptions
+): Performance {
+	const { bpm, swingRatio, countInBeats } = options;
+	if (!(bpm >= 20 && bpm <= 400)) {
+		throw new PerformanceError(`Tempo must be between 20 and 400 bpm, got ${bpm}.`);
+	}
+	if (!Number.isInteger(countInBeats) || countInBeats < 0 || countInBeats > 12) {
+		throw new PerformanceError(`Count-in must be 0 to 12 beats, got ${countInBeats}.`);
+	}
+	const beat = 60 / bpm;
+	const offset = countInBeats * beat;
+	// Whole notes → beats (a quarter note is one beat) → swung seconds after the count-in.
+	const at = (wholes: number) => offset + swingBeats(wholes * 4, swingRatio) * beat;
+
+	const events: PerformanceEvent[] = [];
+	for (let i = 0; i < countInBeats; i++) {
+		events.push({ part: 'click', midi: [i === 0 ? 84 : 79], time: i * beat, duration: 0.06, accent: i === 0 });
+	}
+
+	let chordStart = 0;
+	let chordSymbol: string | null = null;
+	let end = 0;
+	const closeChord = (until: number) => {
+		if (chordSymbol == null || until <= chordStart) return;
+		const voicing = shellVoicing(chordSymbol);
+		if (voicing.length === 0) return;
+		const time = at(chordStart);
+		events.push({ part: 'chord', midi: voicing, time, duration: at(until) - time });
+	};
+
+	for (const note of notes) {
+		if (!(note.duration > 0) || !(note.start >= 0)) {
+			throw new PerformanceError(
+				`A note needs a start of 0 or more and a positive length, got start ${note.start}, length ${note.duration}.`
+			);
+		}
+		if (note.chord !== chordSymbol) {
+			closeChord(note.start);
+			chordSymbol = note.chord;
+			chordStart = note.start;
+		}
+		const time = at(note.start);
+		const stop = at(note.start + note.duration);
+		events.push({ part: 'melody', midi: [note.midi], time, duration: stop - time });
+		end = Math.max(end, note.start + note.duration);
+	}
+	closeChord(end);
+
+	events.sort((a, b) => a.time - b.time);
+	const totalSeconds = events.reduce((t, e) => Math.max(t, e.time + e.duration), 0);
+	return { events, totalSeconds };
+}

@@ -1,0 +1,10 @@
+export { verificationMail, passwordResetMail, type AccountMailInput } from './account';
+export {
+	renderMail,
+	checkMailUrl,
+	MailTemplateError,
+	type MailContent,
+	type MailBlock,
+	type MailLayoutInput
+} from './layout';
+export { escapeHtml } from './escape';

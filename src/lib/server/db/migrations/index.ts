@@ -1,0 +1,10 @@
+import type { Migration } from './types';
+import { accounts } from './0001-accounts';
+
+export type { Migration } from './types';
+
+/**
+ * Every migration, in order. An explicit list rather than a glob so that the Vite build, vitest
+ * and tsx scripts all run the same set. Add new ones at the end; never reorder or rename.
+ */
+export const migrations: Migration[] = [accounts];

@@ -1,0 +1,61 @@
+import {
+	DataTypes,
+	Model,
+	type CreationOptional,
+	type InferAttributes,
+	type InferCreationAttributes,
+	type Sequelize
+} from 'sequelize';
+import { DEFAULT_SETTINGS, normalizeSettings, type UserSettings } from '../../auth/settings';
+
+export const ROLES = ['learner', 'teacher', 'admin'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** An account. Rows never leave `$lib/server`: map them with `toSessionUser` or similar. */
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+	/** Random UUID; the primary key other tables reference (`user_id`, type UUID). */
+	declare id: CreationOptional<string>;
+	/** Stored lower-cased and trimmed, unique. */
+	declare email: string;
+	/** Display name shown to teachers and in mails. */
+	declare name: string;
+	declare role: CreationOptional<Role>;
+	/** argon2id PHC string; never sent anywhere. */
+	declare passwordHash: string;
+	/** When the address was confirmed through the mailed link; null until then. */
+	declare emailVerifiedAt: CreationOptional<Date | null>;
+	declare settings: CreationOptional<UserSettings>;
+	declare createdAt: CreationOptional<Date>;
+	declare updatedAt: CreationOptional<Date>;
+}
+
+export function initUser(sequelize: Sequelize): void {
+	User.init(
+		{
+			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
+			email: {
+				type: DataTypes.STRING(254),
+				allowNull: false,
+				unique: true,
+				set(value: string) {
+					this.setDataValue('email', String(value).trim().toLowerCase());
+				}
+			},
+			name: { type: DataTypes.STRING(100), allowNull: false },
+			role: { type: DataTypes.ENUM(...ROLES), allowNull: false, defaultValue: 'learner' },
+			passwordHash: { type: DataTypes.STRING(255), allowNull: false },
+			emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
+			settings: {
+				type: DataTypes.JSON,
+				allowNull: false,
+				defaultValue: DEFAULT_SETTINGS,
+				get() {
+					return normalizeSettings(this.getDataValue('settings'));
+				}
+			},
+			createdAt: DataTypes.DATE,
+			updatedAt: DataTypes.DATE
+		},
+		{ sequelize, tableName: 'users', underscored: true }
+	);
+}

@@ -1,0 +1,89 @@
+/**
+ * Spelling choices: which enharmonic name a transposed note or key takes. Transposing by interval
+ * keeps every letter relation of the original; this module only steps in where that gives a
+ * needless double accidental, a key with more accidentals than its enharmonic twin (G# major →
+ * Ab major), or an explicit accidental where a neighbouring letter sits in the key signature.
+ */
+import { fifthsOf, jazzTonic, keyOf, type KeySignature, type TritoneSpelling } from './keys';
+import { MODE_FIFTHS } from './key-data';
+import { chromaOf, formatNoteName, LETTER_SEMITONES, type SpelledNote, type SpelledPitch } from './pitch';
+import { modeSuffix } from './keys';
+import type { MusicWarning } from './types';
+
+/**
+ * The enharmonic key with fewer accidentals, when there is one; a warning says what changed.
+ * Ties (F# / Gb major) keep the spelling asked for.
+ * @example respellKey(keyOf('G#')) // { key: Ab major, warning: { code: 'key-respelled', … } }
+ */
+export function respellKey(
+	key: KeySignature,
+	tritone: TritoneSpelling = 'Gb'
+): { key: KeySignature; warning: MusicWarning | null } {
+	if (key.none) return { key, warning: null };
+	const pc = chromaOf(key.tonic);
+	const better = jazzTonic(pc, key.mode, tritone);
+	const betterFifths = fifthsOf(better) + MODE_FIFTHS[key.mode];
+	if (Math.abs(betterFifths) >= Math.abs(key.fifths)) return { key, warning: null };
+	const next = { ...keyOf(better, key.mode), rest: key.rest };
+	const from = formatNoteName(key.tonic) + modeSuffix(key.mode);
+	const to = formatNoteName(better) + modeSuffix(key.mode);
+	return {
+		key: next,
+		warning: {
+			code: 'key-respelled',
+			message: `${from} would need ${Math.abs(key.fifths)} ${key.fifths > 0 ? 'sharps' : 'flats'}; written in ${to} instead, which sounds the same.`
+		}
+	};
+}
+
+/**
+ * Cost of writing `n` in a key: explicit accidentals count 1, double accidentals 2 more,
+ * E#, B#, Cb and Fb outside the signature 1 more (they read as a different letter to most eyes).
+ */
+function spellingCost(n: SpelledNote, accidentals: readonly number[]): number {
+	let cost = 0;
+	if (n.alt !== accidentals[n.letter]) {
+		cost += 1;
+		if ((n.alt === 1 && (n.letter === 2 || n.letter === 6)) || (n.alt === -1 && (n.letter === 0 || n.letter === 3)))
+			cost += 1;
+	}
+	if (Math.abs(n.alt) >= 2) cost += 2;
+	return cost;
+}
+
+/**
+ * Respell a transposed pitch when a neighbouring letter is cheaper to write in the key: no
+ * double sharps or flats, no explicit E#/B#/Cb/Fb where F, C, B or E will do. A spelling that is
+ * already as cheap as any other is kept, so letter relations survive wherever they can.
+ * @example simplifySpelling({ letter: 3, alt: 2, octave: 4 }, keyOf('B').accidentals) // G4
+ */
+export function simplifySpelling(p: SpelledPitch, accidentals: readonly number[]): SpelledPitch {
+	const own = spellingCost(p, accidentals);
+	if (own === 0) return p;
+	let best = p;
+	let bestCost = own;
+	const midi = 12 * (p.octave + 1) + LETTER_SEMITONES[p.letter] + p.alt;
+	for (const d of [-1, 1]) {
+		const abs = p.octave * 7 + p.letter + d;
+		const letter = ((abs % 7) + 7) % 7;
+		const octave = Math.floor(abs / 7);
+		const alt = midi - (12 * (octave + 1) + LETTER_SEMITONES[letter]);
+		if (Math.abs(alt) > 2) continue;
+		const candidate = { letter, alt, octave };
+		const cost = spellingCost(candidate, accidentals);
+		if (cost < bestCost) {
+			best = candidate;
+			bestCost = cost;
+		}
+	}
+	return best;
+}
+
+/**
+ * Respell a chord-symbol root or bass note in a key: like notes, but judged on the pitch class.
+ * @example simplifyNoteName({ letter: 2, alt: 1 }, keyOf('C').accidentals) // F
+ */
+export function simplifyNoteName(n: SpelledNote, accidentals: readonly number[]): SpelledNote {
+	const { letter, alt } = simplifySpelling({ ...n, octave: 4 }, accidentals);
+	return { letter, alt };
+}

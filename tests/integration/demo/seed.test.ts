@@ -1,0 +1,50 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { signIn } from '../../../src/lib/server/auth/accounts';
+import { User } from '../../../src/lib/server/db/models/index';
+import { DEMO_ACCOUNTS, seedDemo } from '../../../src/lib/server/demo/seed';
+import { openTestWorld, type TestWorld } from '../auth/setup';
+
+let world: TestWorld;
+beforeAll(async () => {
+	world = await openTestWorld();
+});
+afterAll(async () => {
+	await world.close();
+});
+
+const snapshot = async () =>
+	(await User.findAll({ order: [['email', 'ASC']], raw: true })).map((row) => ({ ...row }));
+
+describe('seedDemo', () => {
+	it('creates the five demo accounts with their roles, all verified', async () => {
+		const report = await seedDemo('demo-password-12', new Date('2026-11-01T08:00:00Z'));
+		expect(report.created).toEqual(DEMO_ACCOUNTS.map((account) => account.email));
+		const rows = await snapshot();
+		expect(rows.map((row) => [row.email, row.role])).toEqual([
+			['admin@example.com', 'admin'],
+			['alto@example.com', 'learner'],
+			['guitar@example.com', 'learner'],
+			['teacher@example.com', 'teacher'],
+			['trumpet@example.com', 'learner']
+		]);
+		expect(rows.every((row) => row.emailVerifiedAt !== null)).toBe(true);
+	});
+
+	it('lets every demo account sign in with the demo password', async () => {
+		for (const account of DEMO_ACCOUNTS) {
+			const result = await signIn({ email: account.email, password: 'demo-password-12' });
+			expect(result.ok, account.email).toBe(true);
+		}
+		expect((await signIn({ email: 'alto@example.com', password: 'wrong-password-1' })).ok).toBe(
+			false
+		);
+	});
+
+	it('changes nothing when run a second time', async () => {
+		const before = await snapshot();
+		const report = await seedDemo('another-password-99');
+		expect(report.created).toEqual([]);
+		expect(report.kept).toHaveLength(DEMO_ACCOUNTS.length);
+		expect(await snapshot()).toEqual(before);
+	});
+});

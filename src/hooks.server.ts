@@ -1,0 +1,75 @@
+import { error, json, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { building } from '$app/environment';
+import { migrate } from '$lib/server/db/migrate';
+import { startMail } from '$lib/server/mail';
+import { signInUrl } from '$lib/server/auth/redirects';
+import {
+	deleteSessionCookie,
+	readSessionToken,
+	setSessionCookie,
+	validateSessionToken
+} from '$lib/server/auth/session';
+
+/** Once per server start (never during `vite build`): bring the schema up to date, start mail. */
+export const init: ServerInit = async () => {
+	if (building) return;
+	await migrate();
+	await startMail();
+};
+
+/** Who is asking: the session cookie's token looked up (hashed) in the database. */
+const handleSession: Handle = async ({ event, resolve }) => {
+	const token = readSessionToken(event.cookies);
+	if (!token) {
+		event.locals.user = null;
+		event.locals.session = null;
+		return resolve(event);
+	}
+	const { user, session } = await validateSessionToken(token);
+	if (session?.fresh) setSessionCookie(event.cookies, token, session.expiresAt);
+	if (!session) deleteSessionCookie(event.cookies);
+	event.locals.user = user;
+	event.locals.session = session;
+	return resolve(event);
+};
+
+/**
+ * Role gates by route group. Route ids keep the group name, so `/(teach)/…` covers every page
+ * of the group whichever layout or load runs. Endpoints under /api check roles themselves too.
+ */
+const handleRoleGate: Handle = async ({ event, resolve }) => {
+	const id = event.route.id ?? '';
+	const user = event.locals.user;
+
+	if (id.startsWith('/api/admin')) {
+		if (!user) return json({ message: 'Sign in first.' }, { status: 401 });
+		if (user.role !== 'admin') {
+			return json({ message: 'Only admins may use this endpoint.' }, { status: 403 });
+		}
+	} else if (id.startsWith('/(admin)')) {
+		if (!user) redirect(303, signInUrl(event.url));
+		if (user.role !== 'admin') error(403, 'This page is for admins.');
+	} else if (id.startsWith('/(teach)')) {
+		if (!user) redirect(303, signInUrl(event.url));
+		if (user.role !== 'teacher' && user.role !== 'admin') {
+			error(403, 'This page is for teachers.');
+		}
+	} else if (id.startsWith('/(learn)')) {
+		if (!user) redirect(303, signInUrl(event.url));
+	}
+	return resolve(event);
+};
+
+export const handle = sequence(handleSession, handleRoleGate);
+
+/** Unexpected errors: logged in full here, a plain sentence for the person who hit them. */
+export const handleError: HandleServerError = ({ error: caught, event, status, message }) => {
+	if (status !== 404) {
+		console.error(`[${event.request.method} ${event.url.pathname}]`, caught);
+	}
+	return {
+		message:
+			status === 404 ? message : 'Something went wrong on our side. Please try again in a moment.'
+	};
+};

@@ -1,0 +1,27 @@
+import { createHash, randomBytes, timingSafeEqual } from 'node:crypto';
+
+/**
+ * A fresh secret for a link or a session: 32 random bytes, base64url (43 characters).
+ *
+ * @example createToken() // → 'q3Jw…' (43 characters)
+ */
+export function createToken(): string {
+	return randomBytes(32).toString('base64url');
+}
+
+/**
+ * What the database stores in place of a secret: its SHA-256 in hex. A leaked table then holds
+ * nothing that opens a session or a link.
+ *
+ * @example hashToken('abc') // → 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad'
+ */
+export function hashToken(token: string): string {
+	return createHash('sha256').update(token, 'utf8').digest('hex');
+}
+
+/** Constant-time comparison of two hex hashes of equal length. */
+export function sameHash(a: string, b: string): boolean {
+	const left = Buffer.from(a, 'utf8');
+	const right = Buffer.from(b, 'utf8');
+	return left.length === right.length && timingSafeEqual(left, right);
+}

@@ -1,0 +1,33 @@
+import { json } from '@sveltejs/kit';
+import { signIn } from '$lib/server/auth/accounts';
+import { readJsonObject, tooManyRequests } from '$lib/server/auth/json-body';
+import { checkSignIn, recordSignInFailure, recordSignInSuccess } from '$lib/server/auth/limits';
+import { createSession, setSessionCookie } from '$lib/server/auth/session';
+import type { RequestHandler } from './$types';
+
+/**
+ * `POST /api/auth/sign-in` `{ email, password }` → 200 `{ user }` with the session cookie;
+ * 401 wrong e-mail or password, 422 missing field, 400 bad JSON, 429 with Retry-After.
+ */
+export const POST: RequestHandler = async ({ request, cookies, getClientAddress }) => {
+	const body = await readJsonObject(request);
+	if (!body.ok) return body.response;
+	const address = getClientAddress();
+	const { email, password } = body.value;
+	const limit = checkSignIn(address, email);
+	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds);
+
+	const result = await signIn({ email, password });
+	if (!result.ok) {
+		if (result.reason === 'invalid') {
+			return json({ message: result.message, field: result.field }, { status: 422 });
+		}
+		recordSignInFailure(address, email);
+		return json({ message: result.message }, { status: 401 });
+	}
+	recordSignInSuccess(email);
+	const { token, session } = await createSession(result.user.id);
+	setSessionCookie(cookies, token, session.expiresAt);
+	const { id, name, role, emailVerified } = result.user;
+	return json({ user: { id, name, email: result.user.email, role, emailVerified } }, { status: 200 });
+};

@@ -1,0 +1,387 @@
+/**
+ * Chord-quality re-mapping: a line written over one quality, re-sounded over another quality of
+ * the same root, through chord-scale degrees (common practice; see REFERENCES.md §3).
+ *
+ * Per note, in this order:
+ * 1. A pitch that is a chord tone of the target stays (the #9 of D7 is the b3 of Dm7).
+ * 2. A chord tone of the source moves to the target's chord tone of the same number (3 → b3,
+ *    5 → b5, b7 → 7).
+ * 3. A pitch that is an available tension of the target stays (#11 over maj7).
+ * 4. Otherwise the degree number is kept and its alteration taken from the target's scale
+ *    (b13 → 13 over Dorian). Where the target scale holds that number twice or not at all
+ *    (the altered scale), the nearest candidate wins, a tie goes the way the line moves, and a
+ *    warning says the choice was a judgement call.
+ * Approach and passing tones are not mapped by degree: a chromatic run between two chord tones
+ * is re-derived backwards from its target, a half step at a time (a 3 → R fill on D7 becomes
+ * F F E Eb D on Dm7: the fill now spans a minor third, one passing tone too many, and a warning
+ * says so); a note outside the source scale, or a half step off a following chord tone, becomes
+ * the same approach (same side, same distance) to that chord tone after it moved.
+ *
+ * Which chord a note is mapped over: the chord in force (`note.chord`) when it has the home root
+ * or the source quality, else the note is left as written (the other chords of a progression
+ * are not the chord being re-mapped); notes before any chord use `options.root`.
+ */
+import {
+	LETTER_SEMITONES,
+	LETTERS,
+	MusicInvariantError,
+	type SpelledNote,
+	type Steps
+} from './pitch';
+import { chromaOfName, readNote } from './degrees';
+import { LABEL_NUMBER } from './qualities-data';
+import {
+	ASCENDING_SPELLING,
+	DESCENDING_SPELLING,
+	qualityTable,
+	type QualityTable
+} from './qualities';
+import { QUALITY_IDS } from './types';
+import type { MusicWarning, NoteName, PitchName, QualityId, SoundingNote } from './types';
+
+export interface RemapOptions {
+	from: QualityId;
+	to: QualityId;
+	/** Root of the home chord; defaults to the root of the first chord in force. */
+	root?: NoteName;
+}
+
+export interface RemapResult {
+	/** One spelled pitch per input note, in the same order. */
+	pitches: PitchName[];
+	warnings: MusicWarning[];
+}
+
+const mod12 = (n: number): number => ((n % 12) + 12) % 12;
+/** The smallest move between two semitone offsets, in -5..6. */
+const smallestMove = (from: number, to: number): number => {
+	const d = mod12(to - from);
+	return d > 6 ? d - 12 : d;
+};
+
+/** How one source semitone moves onto a target quality. */
+interface Move {
+	/** Target semitones, preferred first; more than one means a judgement call. */
+	candidates: number[];
+	/** Why the move is ambiguous, when the target's table names a reason. */
+	reason: string | null;
+	/** Where the note goes instead when the first choice collides with a neighbour. */
+	alternative: number | null;
+}
+
+function byNumber(T: QualityTable, s: number, number: number): number[] {
+	let candidates = [...T.scaleByNumber[number]];
+	if (candidates.length === 0) {
+		// No such degree in the target scale: its nearest notes, both sides when they tie.
+		for (let d = 1; d <= 6 && candidates.length === 0; d++)
+			candidates = [s + d, s - d].map(mod12).filter((c) => T.inScale[c]);
+	}
+	return candidates.sort((a, b) => Math.abs(smallestMove(s, a)) - Math.abs(smallestMove(s, b)));
+}
+
+function planMove(F: QualityTable, T: QualityTable, s: number): Move {
+	const label = F.labels[s];
+	const number = LABEL_NUMBER[label];
+	const reason = T.row.ambiguous?.[label] ?? null;
+	const scale = byNumber(T, s, number);
+	const kept = (t: number): Move => ({
+		candidates: [t],
+		reason: null,
+		alternative: scale[0] !== t ? scale[0] : null
+	});
+	if (T.roles[s] === 'chord-tone') return kept(s);
+	const tone = T.chordToneByNumber[number];
+	if (F.roles[s] === 'chord-tone' && tone !== undefined) return kept(tone);
+	if (T.roles[s] === 'tension') return kept(s);
+	return {
+		candidates: scale,
+		reason: scale.length > 1 ? null : reason,
+		alternative: scale.length > 1 ? scale[1] : null
+	};
+}
+
+/** Moves for every (from, to, semitones), computed once. */
+const MOVES = new Map<string, Move[]>();
+for (const from of QUALITY_IDS)
+	for (const to of QUALITY_IDS) {
+		const F = qualityTable(from);
+		const T = qualityTable(to);
+		MOVES.set(
+			from + '>' + to,
+			Array.from({ length: 12 }, (_, s) => planMove(F, T, s))
+		);
+	}
+
+/** Spell a pitch at `midi` as an interval above a root, without double accidentals. */
+function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
+	let letter = (root.letter + iv.steps) % 7;
+	const pc = mod12(LETTER_SEMITONES[root.letter] + root.alt + iv.semitones);
+	let alt = smallestMove(LETTER_SEMITONES[letter], pc);
+	if (alt >= 2 || alt <= -2) {
+		// Bbb over a Cdim7-style spelling reads as A: step to the neighbour letter.
+		letter = (letter + (alt > 0 ? 1 : 6)) % 7;
+		alt = smallestMove(LETTER_SEMITONES[letter], pc);
+	}
+	const octave = Math.round((midi - LETTER_SEMITONES[letter] - alt) / 12) - 1;
+	return LETTERS[letter] + (alt > 0 ? '#'.repeat(alt) : 'b'.repeat(-alt)) + octave;
+}
+
+function symbolOf(root: SpelledNote, quality: QualityId): string {
+	return (
+		LETTERS[root.letter] + (root.alt > 0 ? '#'.repeat(root.alt) : 'b'.repeat(-root.alt)) + quality
+	);
+}
+
+const INTERVAL_NAMES = ['unison', 'half step', 'whole step', 'minor third', 'major third'];
+
+/**
+ * Re-map a line from one chord quality to another over the same root.
+ * @example remapNotes(notesOf('F#4 F4 E4 Eb4 D4', 'D7'), { from: '7', to: 'm7' }).pitches // F4 F4 E4 Eb4 D4
+ */
+export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions): RemapResult {
+	const { from, to } = options;
+	const moves = MOVES.get(from + '>' + to);
+	if (!moves) throw new MusicInvariantError(`Cannot re-map from '${from}' to '${to}'`);
+	if (from === to || notes.length === 0)
+		return { pitches: notes.map((n) => n.pitch), warnings: [] };
+	const homeName = options.root ?? notes.find((n) => n.chord)?.chord?.root;
+	if (homeName === undefined)
+		throw new MusicInvariantError(
+			'remapNotes needs options.root when no note has a chord in force'
+		);
+	const homeChroma = chromaOfName(homeName);
+	const F = qualityTable(from);
+	const T = qualityTable(to);
+	const n = notes.length;
+
+	// Context of each note: its root, or null when it stays as written.
+	const roots: (SpelledNote | null)[] = new Array(n);
+	const semis = new Array<number>(n);
+	const isTone = new Array<boolean>(n);
+	const kept: number[] = [];
+	for (let i = 0; i < n; i++) {
+		const chord = notes[i].chord;
+		let rootName = homeName;
+		if (chord) {
+			if (chord.quality !== from && chromaOfName(chord.root) !== homeChroma) {
+				roots[i] = null;
+				kept.push(i);
+				continue;
+			}
+			rootName = chord.root;
+		}
+		const root = readNote(rootName);
+		roots[i] = root;
+		const s = mod12(notes[i].midi - LETTER_SEMITONES[root.letter] - root.alt);
+		semis[i] = s;
+		isTone[i] = F.roles[s] === 'chord-tone';
+	}
+
+	const midis = new Array<number>(n);
+	const pitches = new Array<PitchName>(n);
+	const done = new Array<boolean>(n).fill(false);
+	const alternative = new Array<number | null>(n).fill(null);
+	const warnings: MusicWarning[] = [];
+	const ambiguous = new Map<string, { notes: number[]; message: string }>();
+	const avoid: { i: number; label: string }[] = [];
+
+	const place = (i: number, midi: number, iv: Steps): void => {
+		midis[i] = midi;
+		pitches[i] = spell(roots[i]!, iv, midi);
+		done[i] = true;
+	};
+	const byDegree = (i: number): void => {
+		const s = semis[i];
+		const move = moves[s];
+		let t = move.candidates[0];
+		if (move.candidates.length > 1) {
+			const [a, b] = move.candidates;
+			const da = smallestMove(s, a);
+			const db = smallestMove(s, b);
+			const next = notes[i + 1];
+			// A tie between two homes goes the way the line moves next.
+			if (Math.abs(da) === Math.abs(db) && next) {
+				const up = next.midi > notes[i].midi;
+				t = (up ? da > db : da < db) ? a : b;
+			}
+		}
+		place(i, notes[i].midi + smallestMove(s, t), T.spelling[t]);
+		const other = move.alternative === t ? move.candidates[0] : move.alternative;
+		if (other !== null && other !== t) alternative[i] = other;
+		if (move.candidates.length > 1 || (move.reason && t !== s)) {
+			const label = F.labels[s];
+			const entry = ambiguous.get(label) ?? { notes: [], message: '' };
+			if (!entry.message) {
+				const others = move.candidates
+					.filter((c) => c !== t)
+					.map((c) => `the ${T.labels[c]}`)
+					.join(' or ');
+				entry.message =
+					`The ${label} of ${symbolOf(roots[i]!, from)} has no single place over ` +
+					`${symbolOf(roots[i]!, to)}: written as the ${T.labels[t]} (${pitches[i]}); ` +
+					(move.reason ?? `${others} would also do`) +
+					'.';
+			}
+			entry.notes.push(notes[i].index);
+			ambiguous.set(label, entry);
+		}
+		if (T.roles[t] === 'avoid' && F.roles[s] !== 'avoid' && notes[i].duration >= 0.25)
+			avoid.push({ i, label: T.labels[t] });
+	};
+
+	// 1. Chord tones first: every approach is derived from where they land.
+	for (let i = 0; i < n; i++) if (roots[i] && isTone[i]) byDegree(i);
+	for (const i of kept) {
+		midis[i] = notes[i].midi;
+		pitches[i] = notes[i].pitch;
+		done[i] = true;
+	}
+
+	// 2. Chromatic runs between two chord tones, re-derived backwards from the second.
+	for (let a = 0; a < n - 1; a++) {
+		if (!roots[a] || !isTone[a]) continue;
+		const d = notes[a + 1].midi - notes[a].midi;
+		if (d !== 1 && d !== -1) continue;
+		let b = a + 1;
+		while (b < n && roots[b] && !isTone[b] && notes[b].midi - notes[b - 1].midi === d) b++;
+		if (b >= n || b === a + 1 || !roots[b] || !isTone[b] || notes[b].midi - notes[b - 1].midi !== d)
+			continue;
+		const gap = midis[b] - midis[a];
+		const span = Math.abs(gap);
+		const dir = gap === 0 ? d : Math.sign(gap);
+		const table = dir < 0 ? DESCENDING_SPELLING : ASCENDING_SPELLING;
+		for (let k = a + 1; k < b; k++) {
+			const midi = midis[b] - dir * Math.min(b - k, span);
+			const root = roots[k]!;
+			place(k, midi, table[mod12(midi - LETTER_SEMITONES[root.letter] - root.alt)]);
+		}
+		const passing = b - a - 1;
+		const room = Math.max(span - 1, 0);
+		if (passing !== room) {
+			const source = Math.abs(notes[b].midi - notes[a].midi);
+			const fromChord = symbolOf(roots[a]!, from);
+			const toChord = symbolOf(roots[a]!, to);
+			const ends = `the ${F.labels[semis[a]]} (${notes[a].pitch}) ${d < 0 ? 'down' : 'up'} to the ${F.labels[semis[b]]} (${notes[b].pitch})`;
+			const now = `${INTERVAL_NAMES[span] ?? `${span} semitones`} (${pitches[a]} to ${pitches[b]})`;
+			const matching = matchingSpans(T, source, d)
+				.map(([x, y]) => `${T.labels[x]} → ${T.labels[y]}`)
+				.join(', ');
+			const hint = matching
+				? ` Moving the figure to the ${INTERVAL_NAMES[source] ?? 'same span'} ${matching} of ${toChord} keeps it whole; or write this version by hand.`
+				: ' Write this version by hand if it matters.';
+			warnings.push(
+				passing > room
+					? {
+							code: 'fill-too-long',
+							message: `The chromatic fill from ${ends} over ${fromChord} spans a ${INTERVAL_NAMES[source] ?? `${source} semitones`}; over ${toChord} the same chord tones are a ${now} apart, so ${passing - room === 1 ? 'one passing tone is' : `${passing - room} passing tones are`} too many and a pitch repeats.${hint}`,
+							notes: range(notes, a, b)
+						}
+					: {
+							code: 'fill-gap',
+							message: `The chromatic fill from ${ends} over ${fromChord} becomes a ${now} over ${toChord}: there is room for ${room - passing === 1 ? 'one more passing tone' : `${room - passing} more passing tones`}, so the line now skips a half step.${hint}`,
+							notes: range(notes, a, b)
+						}
+			);
+		}
+		a = b - 1;
+	}
+
+	// 3. Single approach tones, then everything else by degree.
+	for (let i = 0; i < n; i++) {
+		if (done[i]) continue;
+		const target = approachTarget(notes, roots, isTone, F, semis, i);
+		if (target >= 0) {
+			const offset = notes[i].midi - notes[target].midi;
+			const midi = midis[target] + offset;
+			const root = roots[i]!;
+			const table = offset > 0 ? DESCENDING_SPELLING : ASCENDING_SPELLING;
+			place(i, midi, table[mod12(midi - LETTER_SEMITONES[root.letter] - root.alt)]);
+		} else byDegree(i);
+	}
+
+	// 4. A note with a second home takes it when its first one collides with a neighbour and the
+	// second does not (13 → bb7 on dim7 would meet the b7 → bb7 next to it: it becomes b13).
+	const collides = (i: number, midi: number, j: number): boolean =>
+		j >= 0 && j < n && midis[j] === midi && notes[j].midi !== notes[i].midi;
+	for (let i = 0; i < n; i++) {
+		const other = alternative[i];
+		if (other === null || !(collides(i, midis[i], i - 1) || collides(i, midis[i], i + 1))) continue;
+		const midi = notes[i].midi + smallestMove(semis[i], other);
+		if (collides(i, midi, i - 1) || collides(i, midi, i + 1)) continue;
+		place(i, midi, T.spelling[other]);
+	}
+
+	for (const [, entry] of ambiguous)
+		warnings.push({ code: 'ambiguous', message: entry.message, notes: entry.notes });
+	if (avoid.length)
+		warnings.push({
+			code: 'avoid-note',
+			message: `${avoid.map(({ i, label }) => `${pitches[i]} (the ${label})`).join(', ')} ${avoid.length === 1 ? 'is an avoid note' : 'are avoid notes'} over ${symbolOf(roots[avoid[0].i]!, to)} and ${avoid.length === 1 ? 'lasts' : 'last'} a quarter note or more.`,
+			notes: avoid.map(({ i }) => notes[i].index)
+		});
+	for (let i = 0; i + 1 < n; i++) {
+		if (midis[i] === midis[i + 1] && notes[i].midi !== notes[i + 1].midi)
+			warnings.push({
+				code: 'collision',
+				message: `Two notes that differ over ${symbolOf(roots[i] ?? readNote(homeName), from)} (${notes[i].pitch}, ${notes[i + 1].pitch}) become the same pitch ${pitches[i]} over ${symbolOf(roots[i] ?? readNote(homeName), to)}.`,
+				notes: [notes[i].index, notes[i + 1].index]
+			});
+	}
+	if (kept.length)
+		warnings.push({
+			code: 'other-chord-kept',
+			message: `${kept.length === 1 ? 'One note sounds' : `${kept.length} notes sound`} over another chord of the progression (${[...new Set(kept.map((i) => notes[i].chord!.symbol))].join(', ')}) and ${kept.length === 1 ? 'is' : 'are'} left as written.`,
+			notes: kept.map((i) => notes[i].index)
+		});
+	return { pitches, warnings };
+}
+
+function range(notes: readonly SoundingNote[], a: number, b: number): number[] {
+	const out: number[] = [];
+	for (let k = a; k <= b; k++) out.push(notes[k].index);
+	return out;
+}
+
+/** Pairs of chord tones of a quality `span` semitones apart, moving in direction `d`. */
+function matchingSpans(T: QualityTable, span: number, d: number): [number, number][] {
+	const out: [number, number][] = [];
+	for (let x = 0; x < 12; x++) {
+		const y = mod12(x + d * span);
+		if (T.roles[x] === 'chord-tone' && T.roles[y] === 'chord-tone') out.push([x, y]);
+	}
+	return out;
+}
+
+/**
+ * The chord tone a note approaches, or -1. Only notes outside the parent scale approach (an
+ * altered tension or a chromatic note): a half step off the next note when that is a chord tone
+ * (a whole step when the note is outside every scale of the chord), or within a whole step of
+ * the chord tone after it when the note between lies on the target's other side (an enclosure).
+ */
+function approachTarget(
+	notes: readonly SoundingNote[],
+	roots: readonly (SpelledNote | null)[],
+	isTone: readonly boolean[],
+	F: QualityTable,
+	semis: readonly number[],
+	i: number
+): number {
+	// Steps of the parent scale itself (11 → 3 on a dominant) are melody, not approaches.
+	if (F.inParentScale[semis[i]]) return -1;
+	const here = notes[i].midi;
+	const outside = !F.inScale[semis[i]];
+	const next = i + 1;
+	if (next < notes.length && (isTone[next] || !roots[next])) {
+		const d = Math.abs(notes[next].midi - here);
+		if (d === 1 || (outside && d === 2)) return next;
+	}
+	const after = i + 2;
+	if (after < notes.length && (isTone[after] || !roots[after])) {
+		const t = notes[after].midi;
+		const d = here - t;
+		const between = notes[next].midi - t;
+		if (d !== 0 && Math.abs(d) <= 2 && between !== 0 && Math.sign(between) !== Math.sign(d))
+			return after;
+	}
+	return -1;
+}

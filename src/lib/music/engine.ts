@@ -6,23 +6,27 @@
 import { emitAbc, transposeChordSymbol } from './abc/emit';
 import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
-import { parseChordSymbol } from './chord-symbol';
-import { degreeAt, type DegreeLabel } from './degrees';
+import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
+import { degreeAt, readNote, type DegreeLabel } from './degrees';
+import { remapNotes } from './remap';
+import { isQualityId } from './qualities';
 import { formatKeyField, type KeySignature, type TritoneSpelling } from './keys';
 import {
 	chromaOf,
 	formatNoteName,
 	formatPitch,
 	midiOf,
+	MusicInvariantError,
 	parseNoteName,
+	parsePitchName,
 	transposePitch,
 	type SpelledNote,
 	type SpelledPitch,
 	type Steps
 } from './pitch';
-import { simplifySpelling } from './spelling';
-import { planKeys, shiftPlan, type KeyPlan } from './transpose';
-import type { ChordContext, KeyName, MusicWarning, PitchName, QualityId } from './types';
+import { simplifyNoteName, simplifySpelling } from './spelling';
+import { planKeys, shiftPlan, transposeNoteName, UNISON, type KeyPlan } from './transpose';
+import { QUALITY_IDS, type ChordContext, type KeyName, type MusicWarning, type PitchName, type QualityId } from './types';
 
 export type { AbcError } from './abc/tokenize';
 
@@ -72,6 +76,19 @@ export interface PreparedLick {
 	tune: ParsedAbc;
 	/** The lick's own chord quality: that of its first chord symbol, or null. */
 	quality: QualityId | null;
+	/** Re-mapped versions by quality, in the lick's own key, computed on first use. */
+	layers: Map<QualityId | null, QualityLayer>;
+}
+
+/** The lick over one chord quality, still in its own key. */
+interface QualityLayer {
+	quality: QualityId | null;
+	/** A pitch per note head. */
+	pitches: SpelledPitch[];
+	/** Chord symbol texts (without quotes) and contexts, one per chord symbol of the tune. */
+	chordTexts: string[];
+	contexts: (ChordContext | null)[];
+	warnings: MusicWarning[];
 }
 
 export type PrepareResult = { ok: true; lick: PreparedLick } | { ok: false; error: AbcError };
@@ -86,7 +103,9 @@ export class VariantRequestError extends Error {
 
 const readChord = (symbol: string): ChordContext | null => {
 	const parsed = parseChordSymbol(symbol);
-	return parsed && { symbol: parsed.symbol, root: parsed.root, quality: parsed.quality, bass: parsed.bass };
+	return (
+		parsed && { symbol: parsed.symbol, root: parsed.root, quality: parsed.quality, bass: parsed.bass }
+	);
 };
 
 /**
@@ -96,8 +115,17 @@ const readChord = (symbol: string): ChordContext | null => {
 export function prepareLick(abc: string): PrepareResult {
 	const parsed = parseAbc(abc, readChord);
 	if (!parsed.ok) return parsed;
-	const first = parsed.tune.chordSymbols.find((c) => c.context !== null);
-	return { ok: true, lick: { tune: parsed.tune, quality: first?.context?.quality ?? null } };
+	const { tune } = parsed;
+	const first = tune.chordSymbols.find((c) => c.context !== null);
+	const quality = first?.context?.quality ?? null;
+	const own: QualityLayer = {
+		quality,
+		pitches: tune.heads.map((h) => h.pitch),
+		chordTexts: tune.chordSymbols.map((c) => tune.tokens[c.token].value as string),
+		contexts: tune.chordSymbols.map((c) => c.context),
+		warnings: []
+	};
+	return { ok: true, lick: { tune, quality, layers: new Map([[quality, own]]) } };
 }
 
 /**
@@ -105,83 +133,162 @@ export function prepareLick(abc: string): PrepareResult {
  * @example readKeyName('Eb') // { letter: 2, alt: -1 }
  */
 export function readKeyName(name: string): SpelledNote {
-	const n = parseNoteName(name);
+	const n = typeof name === 'string' ? parseNoteName(name) : null;
 	if (!n || Math.abs(n.alt) > 1) {
 		throw new VariantRequestError(
-			`“${name}” is not a key: name a tonic such as C, Eb or F# (one sharp or flat at most).`
+			`“${String(name)}” is not a key: name a tonic such as C, Eb or F# (one sharp or flat at most).`
 		);
 	}
 	return n;
 }
 
-/** Chord contexts and symbol texts of a tune after moving by an interval. */
+/** The lick re-mapped over another quality (harmony's `remapNotes`), cached on the lick. */
+function layerFor(lick: PreparedLick, quality: QualityId | null): QualityLayer {
+	const cached = lick.layers.get(quality);
+	if (cached) return cached;
+	const from = lick.quality;
+	if (quality === null) return lick.layers.get(from) as QualityLayer;
+	if (!isQualityId(quality)) {
+		throw new VariantRequestError(
+			`“${String(quality)}” is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.`
+		);
+	}
+	if (from === null) {
+		throw new VariantRequestError(
+			'This lick has no chord symbol that names a quality, so it cannot be re-mapped: add one such as "C7" before the first note.'
+		);
+	}
+	const { tune } = lick;
+	const home = tune.chordSymbols.find((c) => c.context)?.context as ChordContext;
+	const homeChroma = chromaOf(parseNoteName(home.root) as SpelledNote);
+	const remapped = remapNotes(tune.notes, { from, to: quality, root: home.root });
+	const pitches = tune.heads.map((h) => {
+		if (h.grace) return h.pitch;
+		const p = parsePitchName(remapped.pitches[h.sounding]);
+		if (!p) throw new MusicInvariantError(`Re-mapping gave no pitch for note ${h.sounding}`);
+		return p;
+	});
+	// The chord symbols the line is re-mapped over change with it (same root, new quality).
+	const chordTexts: string[] = [];
+	const contexts: (ChordContext | null)[] = [];
+	tune.chordSymbols.forEach((cs) => {
+		const c = cs.context;
+		const text = tune.tokens[cs.token].value as string;
+		const rooted = c && parseNoteName(c.root);
+		if (c && rooted && (c.quality === from || chromaOf(rooted) === homeChroma)) {
+			const symbol = formatChordSymbol({ root: c.root, suffix: quality, bass: c.bass });
+			chordTexts.push(symbol);
+			contexts.push({ symbol, root: c.root, quality, bass: c.bass });
+		} else {
+			chordTexts.push(text);
+			contexts.push(c);
+		}
+	});
+	const layer = { quality, pitches, chordTexts, contexts, warnings: remapped.warnings };
+	lick.layers.set(quality, layer);
+	return layer;
+}
+
+const spellName = (n: SpelledNote): string => formatNoteName(n);
+
+/** Chord texts and contexts of a layer moved by an interval, spelled for the keys in force. */
 function moveChords(
 	tune: ParsedAbc,
+	layer: QualityLayer,
 	by: Steps,
 	keys: readonly KeySignature[]
 ): { texts: string[]; contexts: (ChordContext | null)[] } {
-	const texts: string[] = [];
-	const contexts: (ChordContext | null)[] = [];
+	const texts: string[] = new Array(layer.chordTexts.length);
+	const contexts: (ChordContext | null)[] = new Array(layer.chordTexts.length);
 	let keyIndex = 0;
-	for (const cs of tune.chordSymbols) {
-		while (keyIndex + 1 < tune.keys.length && tune.keys[keyIndex + 1].token < cs.token) keyIndex++;
-		const original = tune.tokens[cs.token].value as string;
-		const text = cs.context ? transposeChordSymbol(original, by, keys[keyIndex].accidentals) : original;
-		texts.push(text);
-		contexts.push(cs.context && readChord(text));
+	for (let i = 0; i < layer.chordTexts.length; i++) {
+		const token = tune.chordSymbols[i].token;
+		while (keyIndex + 1 < tune.keys.length && tune.keys[keyIndex + 1].token < token) keyIndex++;
+		const c = layer.contexts[i];
+		if (!c) {
+			texts[i] = layer.chordTexts[i];
+			contexts[i] = null;
+			continue;
+		}
+		const accidentals = keys[keyIndex].accidentals;
+		const text = transposeChordSymbol(layer.chordTexts[i], by, accidentals);
+		const move = (name: string) =>
+			spellName(simplifyNoteName(transposeNoteName(parseNoteName(name) as SpelledNote, by), accidentals));
+		texts[i] = text;
+		contexts[i] = { symbol: text, root: move(c.root), quality: c.quality, bass: c.bass && move(c.bass) };
 	}
 	return { texts, contexts };
 }
 
-/** Pitches of every head moved by an interval and spelled for the key in force. */
-function movePitches(tune: ParsedAbc, by: Steps, keys: readonly KeySignature[]): SpelledPitch[] {
-	const out: SpelledPitch[] = new Array(tune.heads.length);
-	for (let i = 0; i < tune.heads.length; i++) {
-		const h = tune.heads[i];
-		out[i] = simplifySpelling(transposePitch(h.pitch, by), keys[h.key].accidentals);
+/** Pitches of a layer moved by an interval and spelled for the key in force. */
+function movePitches(
+	tune: ParsedAbc,
+	pitches: readonly SpelledPitch[],
+	by: Steps,
+	keys: readonly KeySignature[]
+): SpelledPitch[] {
+	const out: SpelledPitch[] = new Array(pitches.length);
+	for (let i = 0; i < pitches.length; i++) {
+		out[i] = simplifySpelling(transposePitch(pitches[i], by), keys[tune.heads[i].key].accidentals);
 	}
 	return out;
 }
 
 /**
- * One variant of a prepared lick.
+ * One variant of a prepared lick. Throws `VariantRequestError` for an unknown key, quality or
+ * instrument.
  * @example renderVariant(lick, { to: 'Eb' }).key // 'Eb'
  */
-export function renderVariant(lick: PreparedLick, options: VariantOptions = {}): VariantResult {
+export function renderVariant(lick: PreparedLick, options: VariantOptions = {}): VariantSuccess {
 	const { tune } = lick;
 	const tritone = options.tritone ?? 'Gb';
+	if (tritone !== 'Gb' && tritone !== 'F#') {
+		throw new VariantRequestError(`“${String(tritone)}” is not a tritone spelling: use Gb or F#.`);
+	}
 	const target = options.to === undefined ? null : readKeyName(options.to);
+	const layer = layerFor(lick, options.quality ?? null);
 	const originalKeys = tune.keys.map((k) => k.key);
 	const concert: KeyPlan = planKeys(originalKeys, target, { tritone, octaves: options.octaves });
-	const warnings: MusicWarning[] = [...tune.warnings, ...concert.warnings];
-	const quality = options.quality ?? lick.quality;
 	const instrument = options.instrument ?? 'concert';
 
-	const concertPitches = movePitches(tune, concert.interval, concert.keys);
-	const concertChords = moveChords(tune, concert.interval, concert.keys);
-	const written: KeyPlan = shiftPlan(originalKeys, concert, { steps: 0, semitones: 0 }, tritone);
-	const writtenPitches = written === concert ? concertPitches : movePitches(tune, written.interval, written.keys);
-	const writtenChords = written === concert ? concertChords : moveChords(tune, written.interval, written.keys);
+	const concertPitches = movePitches(tune, layer.pitches, concert.interval, concert.keys);
+	const concertChords = moveChords(tune, layer, concert.interval, concert.keys);
+	const written: KeyPlan = writtenPlan(instrument, originalKeys, concert, concertPitches, tritone);
+	const writtenPitches =
+		written === concert ? concertPitches : movePitches(tune, layer.pitches, written.interval, written.keys);
+	const writtenChords =
+		written === concert ? concertChords : moveChords(tune, layer, written.interval, written.keys);
 
-	const abc = emitAbc(tune, { keys: written.keys, pitches: writtenPitches, chordSymbols: writtenChords.texts });
-	const notes: VariantNote[] = tune.notes.map((n) => ({ ...n, degree: null }));
+	const abc = emitAbc(tune, {
+		keys: written.keys,
+		pitches: writtenPitches,
+		chordSymbols: writtenChords.texts
+	});
+	const notes: VariantNote[] = new Array(tune.notes.length);
+	let chordIndex = -1;
 	for (let i = 0; i < tune.heads.length; i++) {
 		const h = tune.heads[i];
 		if (h.grace || h.continuation) continue;
+		const src = tune.notes[h.sounding];
 		const p = concertPitches[i];
-		const note = notes[h.sounding];
-		note.pitch = formatPitch(p);
-		note.midi = midiOf(p);
-	}
-	// Chord contexts follow the chord symbols in order: the n-th symbol's context replaces the
-	// original one wherever that was in force.
-	const contextOf = new Map<ChordContext, ChordContext | null>();
-	tune.chordSymbols.forEach((cs, i) => cs.context && contextOf.set(cs.context, concertChords.contexts[i]));
-	for (const note of notes) {
-		if (!note.chord) continue;
-		const chord = contextOf.get(note.chord) ?? null;
-		note.chord = chord;
-		note.degree = chord ? degreeAt(note.midi - chromaOf(parseNoteName(chord.root) as SpelledNote), chord.quality).label : null;
+		const midi = midiOf(p);
+		// The chord in force is the same symbol as in the source, now moved.
+		let chord: ChordContext | null = null;
+		if (src.chord) {
+			if (chordIndex < 0 || tune.chordSymbols[chordIndex].context !== src.chord) {
+				chordIndex = tune.chordSymbols.findIndex((c) => c.context === src.chord);
+			}
+			chord = concertChords.contexts[chordIndex];
+		}
+		notes[h.sounding] = {
+			index: src.index,
+			pitch: formatPitch(p),
+			midi,
+			start: src.start,
+			duration: src.duration,
+			degree: chord ? degreeAt(midi - chromaOf(readNote(chord.root)), chord.quality).label : null,
+			chord
+		};
 	}
 	const firstKey = concert.keys[0];
 	return {
@@ -189,11 +296,27 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		abc,
 		key: firstKey.none ? 'C' : formatNoteName(firstKey.tonic),
 		writtenKey: formatKeyField(written.keys[0]),
-		quality,
+		quality: layer.quality,
 		instrument,
-		warnings,
+		warnings: [...tune.warnings, ...layer.warnings, ...concert.warnings, ...(written === concert ? [] : written.warnings)],
 		notes
 	};
+}
+
+/** The written key plan for an instrument: concert unless the instrument transposes. */
+function writtenPlan(
+	instrument: string,
+	keys: readonly KeySignature[],
+	concert: KeyPlan,
+	pitches: readonly SpelledPitch[],
+	tritone: TritoneSpelling
+): KeyPlan {
+	void pitches;
+	if (instrument === 'concert') return concert;
+	throw new VariantRequestError(`“${instrument}” is not an instrument we know.`);
+	void keys;
+	void tritone;
+	return shiftPlan(keys, concert, UNISON, tritone);
 }
 
 /**
@@ -204,6 +327,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 export function computeVariant(
 	request: { abc: string } & VariantOptions
 ): VariantResult | { ok: false; error: { message: string; line?: number; column?: number } } {
+	if (typeof request.abc !== 'string') return { ok: false, error: { message: 'The abc text is missing.' } };
 	const prepared = prepareLick(request.abc);
 	if (!prepared.ok) return prepared;
 	try {
@@ -236,8 +360,7 @@ export function computeGrid(
 	try {
 		for (const to of keys) {
 			for (const quality of qualities) {
-				const v = renderVariant(prepared.lick, { to, quality, instrument, tritone });
-				if (v.ok) variants.push(v);
+				variants.push(renderVariant(prepared.lick, { to, quality, instrument, tritone }));
 			}
 		}
 	} catch (e) {

@@ -19,7 +19,7 @@ export const init: ServerInit = async () => {
 };
 
 /** Who is asking: the session cookie's token looked up (hashed) in the database. */
-const handleSession: Handle = async ({ event, resolve }) => {
+export const handleSession: Handle = async ({ event, resolve }) => {
 	const token = readSessionToken(event.cookies);
 	if (!token) {
 		event.locals.user = null;
@@ -38,7 +38,7 @@ const handleSession: Handle = async ({ event, resolve }) => {
  * Role gates by route group. Route ids keep the group name, so `/(teach)/…` covers every page
  * of the group whichever layout or load runs. Endpoints under /api check roles themselves too.
  */
-const handleRoleGate: Handle = async ({ event, resolve }) => {
+export const handleRoleGate: Handle = async ({ event, resolve }) => {
 	const id = event.route.id ?? '';
 	const user = event.locals.user;
 

@@ -72,7 +72,7 @@ export function toSessionUser(row: User): SessionUser {
 		email: row.email,
 		name: row.name,
 		role: row.role,
-		emailVerified: row.emailVerifiedAt !== null,
+		emailVerified: row.emailVerifiedAt instanceof Date,
 		settings: row.settings
 	};
 }

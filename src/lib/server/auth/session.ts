@@ -121,7 +121,7 @@ function getLucia() {
 			email: attributes.email,
 			name: attributes.name,
 			role: attributes.role,
-			emailVerified: attributes.emailVerifiedAt !== null,
+			emailVerified: attributes.emailVerifiedAt instanceof Date,
 			settings: normalizeSettings(attributes.settings)
 		})
 	});

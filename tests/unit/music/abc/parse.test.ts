@@ -1,0 +1,208 @@
+import { describe, expect, it } from 'vitest';
+import abcjs from 'abcjs';
+import { AbcNotation, Note } from 'tonal';
+import {
+	defaultUnitLength,
+	lengthMultiplier,
+	parseAbc,
+	type ParsedAbc
+} from '../../../../src/lib/music/abc/parse';
+import { parseChordSymbol } from '../../../../src/lib/music/chord-symbol';
+
+const tune = (text: string): ParsedAbc => {
+	const r = parseAbc(text, (s) => parseChordSymbol(s));
+	if (!r.ok) throw new Error(`${r.error.line}:${r.error.column} ${r.error.message}`);
+	return r.tune;
+};
+const head = (key = 'C', extra = 'M:4/4\nL:1/8\n') => `X:1\nT:Test\n${extra}K:${key}\n`;
+const pitches = (music: string, key = 'C', extra?: string) =>
+	tune(head(key, extra) + music + '\n').notes.map((n) => n.pitch);
+const errorOf = (text: string) => {
+	const r = parseAbc(text);
+	if (r.ok) throw new Error('expected an error');
+	return r.error;
+};
+
+describe('abc parser', () => {
+	it('reads octaves as abc 2.1 §4.1 and tonal AbcNotation do', () => {
+		const abc = ["C,", 'C', 'c', "c'", '_B,', '^f', "=e''"];
+		for (const a of abc) {
+			const [p] = pitches(a);
+			// reference: tonal 6.5.1 AbcNotation.abcToScientificNotation
+			expect(p, a).toBe(AbcNotation.abcToScientificNotation(a.replace('=', '')));
+		}
+		// abc 2.1 §4.1: C is middle C, MIDI 60; C, is 48; c' is 84
+		expect(tune(head() + "C C, c'\n").notes.map((n) => n.midi)).toEqual([60, 48, 84]);
+	});
+
+	it('applies the key signature, including modes (abc 2.1 §3.1.14)', () => {
+		expect(pitches('FcB', 'G')).toEqual(['F#4', 'C5', 'B4']);
+		expect(pitches('FcB', 'Dmix')).toEqual(['F#4', 'C5', 'B4']);
+		expect(pitches('FcB', 'Ador')).toEqual(['F#4', 'C5', 'B4']);
+		expect(pitches('BEA', 'BbMix')).toEqual(['Bb4', 'Eb4', 'Ab4']);
+		expect(pitches('BEF', 'D Phr ^f')).toEqual(['Bb4', 'Eb4', 'F#4']);
+		expect(pitches('FC', 'D =c')).toEqual(['F#4', 'C4']);
+	});
+
+	it('reaches accidentals across the bar by letter in every octave by default (abc 2.1 §11.3 pitch)', () => {
+		// REFERENCES.md §1: K:C ^c c C | c → C#5 C#5 C#4 | C5 under `pitch`
+		expect(pitches('^c c C | c')).toEqual(['C#5', 'C#5', 'C#4', 'C5']);
+	});
+
+	it('follows %%propagate-accidentals octave and not (abc 2.1 §11.3)', () => {
+		const octave = tune('%%propagate-accidentals octave\n' + head() + '^c c C | c\n');
+		expect(octave.notes.map((n) => n.pitch)).toEqual(['C#5', 'C#5', 'C4', 'C5']);
+		const not = tune('%%propagate-accidentals not\n' + head() + '^c c C | c\n');
+		expect(not.notes.map((n) => n.pitch)).toEqual(['C#5', 'C5', 'C4', 'C5']);
+	});
+
+	it('lets a natural sign cancel the key signature until the bar line', () => {
+		expect(pitches('=F F f | F', 'G')).toEqual(['F4', 'F4', 'F5', 'F#4']);
+	});
+
+	it.each([
+		// abc 2.1 §3.1.7: L: defaults from M: (below 0.75 → 1/16, else 1/8; C, C| and none → 1/8)
+		['2/4', 1 / 16],
+		['3/4', 1 / 8],
+		['6/8', 1 / 8],
+		['4/4', 1 / 8],
+		['5/8', 1 / 16],
+		['C', 1 / 8],
+		['C|', 1 / 8],
+		['none', 1 / 8],
+		['', 1 / 8]
+	])('takes the default unit length for M:%s as %d', (meter, unit) => {
+		expect(defaultUnitLength(meter)).toBe(unit);
+		const t = tune(`X:1\n${meter ? `M:${meter}\n` : ''}K:C\nC\n`);
+		expect(t.notes[0].duration).toBe(unit);
+	});
+
+	it.each([
+		// abc 2.1 §4.3 with L:1/8: A2 a quarter, A/ a sixteenth, A3/2 a dotted eighth
+		['', 1],
+		['2', 2],
+		['/', 1 / 2],
+		['//', 1 / 4],
+		['/2', 1 / 2],
+		['3/2', 3 / 2],
+		['/4', 1 / 4],
+		['0', null],
+		['3/0', null]
+	])('reads the length %j as %d units', (text, mult) => {
+		expect(lengthMultiplier(text)).toBe(mult);
+	});
+
+	it('times notes, broken rhythm, tuplets, rests and chords', () => {
+		const t = tune(head() + 'A2 A/ A3/2 a>b c<d (3cde [CEG]2 z (3:2:2ab c\n');
+		const d = t.notes.map((n) => n.duration);
+		// abc 2.1 §4.3, §4.4 (a>b is 3:1), §4.13 ((3 = three in the time of two), §4.17
+		const expected = [1 / 4, 1 / 16, 3 / 16, 3 / 16, 1 / 16, 1 / 16, 3 / 16];
+		expected.forEach((v, i) => expect(d[i]).toBeCloseTo(v, 10));
+		expect(d.slice(7, 10).reduce((a, b) => a + b, 0)).toBeCloseTo(1 / 4, 10);
+		for (const n of t.notes.slice(10, 13)) expect(n.start).toBeCloseTo(1.25, 10);
+		expect(t.notes.slice(10, 13).map((n) => n.duration)).toEqual([1 / 4, 1 / 4, 1 / 4]);
+		// the rest takes an eighth; (3:2:2 puts 3 in the time of 2 for two notes only
+		expect(t.notes[13].start).toBeCloseTo(1.625, 10);
+		expect(t.notes[15].start).toBeCloseTo(1.625 + 1 / 6, 10);
+		expect(t.notes[13].duration).toBeCloseTo(1 / 12, 10);
+		expect(t.notes[15].duration).toBeCloseTo(1 / 8, 10);
+	});
+
+	it('merges ties, across bar lines too, but not a tie after a space (abc 2.1 §4.11)', () => {
+		const t = tune(head() + 'c4- | c4 c4 -c4 | ^f2- f2\n');
+		expect(t.notes.map((n) => [n.pitch, n.duration])).toEqual([
+			['C5', 1],
+			['C5', 1 / 2],
+			['C5', 1 / 2],
+			['F#5', 1 / 2]
+		]);
+		expect(t.heads.filter((h) => h.continuation)).toHaveLength(2);
+	});
+
+	it('warns when a tie joins different pitches, reading them as two notes', () => {
+		const t = tune(head('G') + '^f2- | f2\n');
+		expect(t.notes.map((n) => [n.pitch, n.duration])).toEqual([['F#5', 1 / 2]]);
+		const u = tune(head() + '^f2- | f2\n');
+		expect(u.notes.map((n) => n.pitch)).toEqual(['F#5', 'F5']);
+		expect(u.warnings.map((w) => w.code)).toContain('tie-unmatched');
+	});
+
+	it('keeps grace notes out of the timing but reads their pitches', () => {
+		const t = tune(head() + '{ag}f2 g\n');
+		expect(t.notes.map((n) => [n.pitch, n.start])).toEqual([
+			['F5', 0],
+			['G5', 0.25]
+		]);
+		expect(t.heads.filter((h) => h.grace).map((h) => h.midi)).toEqual([81, 79]);
+	});
+
+	it('gives each note the chord symbol in force, and annotations are not chords (abc 2.1 §4.18, §4.19)', () => {
+		const t = tune(head() + 'C "Bb7#11/D"D "^solo"E "Am7"F G\n');
+		expect(t.notes.map((n) => n.chord?.symbol ?? null)).toEqual([null, 'Bb7#11/D', 'Bb7#11/D', 'Am7', 'Am7']);
+		expect(t.notes[1].chord).toMatchObject({ root: 'Bb', quality: '7', bass: 'D' });
+	});
+
+	it('changes key with an inline field and with a K: line in the body', () => {
+		expect(pitches('F [K:Bb] B E | F', 'G')).toEqual(['F#4', 'Bb4', 'Eb4', 'F4']);
+		expect(pitches('F\nK:F\nB', 'G')).toEqual(['F#4', 'Bb4']);
+	});
+
+	it('joins continued lines and skips comment lines (abc 2.1 §2.2.5, §2.2.6)', () => {
+		const joined = pitches('abc \\\ncba|');
+		expect(joined).toEqual(pitches('abc cba|'));
+		expect(pitches('ab\n% a comment\ncd')).toEqual(['A5', 'B5', 'C5', 'D5']);
+	});
+
+	it('reads two tunes, each with its own key (abc 2.1 §2.2)', () => {
+		const t = tune('X:1\nT:One\nK:C\nF\n\nX:2\nT:Two\nK:G\nF\n');
+		expect(t.notes.map((n) => n.pitch)).toEqual(['F4', 'F#4']);
+	});
+
+	it('warns about unknown header fields and goes on (abc 2.1 §3)', () => {
+		const t = tune('X:1\nJ:foo\nK:C\nC\n');
+		expect(t.warnings.map((w) => w.code)).toEqual(['unknown-field']);
+		expect(t.notes).toHaveLength(1);
+	});
+
+	it('keeps decorations, slurs and repeats out of the pitches', () => {
+		expect(pitches('|: !trill!c .d ~e (fg) :|1 a :|2 b |]')).toEqual(['C5', 'D5', 'E5', 'F5', 'G5', 'A5', 'B5']);
+	});
+
+	it.each([
+		['X:1\nK:C\n', 3, 1, /no notes/],
+		['X:1\nK:C\nz4 |\n', 3, 1, /no notes/],
+		['X:1\nK:Hm\nC\n', 2, 3, /not a key/],
+		['X:1\nK:D Phr ^z\nC\n', 2, 9, /accidental/],
+		['X:1\nM:4/x\nK:C\nC\n', 2, 1, /not a meter/],
+		['X:1\nL:1/0\nK:C\nC\n', 2, 1, /not a note length/],
+		['X:1\nT:x\n', 1, 1, /No K: line/],
+		['', 1, 1, /No K: line/],
+		['CDEF', 1, 1, /No K: line/],
+		['X:1\nK:C\n>C\n', 3, 1, /broken rhythm/],
+		['X:1\nK:C\nC>\n', 3, 2, /broken rhythm/],
+		['X:1\nK:C\n[K:Q]C\n', 3, 4, /not a key/]
+	])('refuses %j with a positioned message', (text, line, column, message) => {
+		const e = errorOf(text);
+		expect(e.message).toMatch(message);
+		expect([e.line, e.column]).toEqual([line, column]);
+	});
+
+	it('sounds what abcjs 6.7.2 sounds for a lick without octave-ambiguous accidentals', () => {
+		const text = head('Bb') + '"Bb7"B,DFA _A=G^FF | (3cBA G>F [DF]2 z2 | d4- d2 c2 |]\n';
+		const ours = tune(text).notes.map((n) => [n.midi, n.start, n.duration]);
+		// reference: abcjs 6.7.2 parseOnly(...)[0].setUpAudio() (melody track)
+		const audio = abcjs.parseOnly(text)[0].setUpAudio();
+		const theirs = (audio.tracks[0] as { cmd: string; pitch: number; start: number; duration: number }[])
+			.filter((e) => e.cmd === 'note')
+			.map((e) => [e.pitch, e.start, e.duration]);
+		expect(ours.length).toBe(theirs.length);
+		ours.forEach((o, i) => {
+			expect(o[0], `note ${i}`).toBe(theirs[i][0]);
+			// abcjs rounds its times to six decimals
+			expect(o[1]).toBeCloseTo(theirs[i][1], 5);
+			expect(o[2]).toBeCloseTo(theirs[i][2], 5);
+		});
+		// and every pitch name agrees with tonal 6.5.1 Note.midi
+		for (const n of tune(text).notes) expect(Note.midi(n.pitch)).toBe(n.midi);
+	});
+});

@@ -1,0 +1,46 @@
+import { defineConfig } from '@playwright/test';
+import { E2E_DATA_DIR, E2E_ORIGIN, E2E_PORT } from './tests/e2e/support/env';
+
+/**
+ * End-to-end tests drive the BUILT server (`vite build` first; `npm run test:e2e` does both) in
+ * Debian's Chromium: Playwright never downloads a browser here.
+ */
+export default defineConfig({
+	testDir: 'tests/e2e',
+	fullyParallel: false,
+	workers: 1,
+	retries: 0,
+	reporter: 'list',
+	timeout: 30_000,
+	expect: { timeout: 7_000 },
+	use: {
+		baseURL: E2E_ORIGIN,
+		viewport: { width: 1280, height: 800 },
+		launchOptions: {
+			executablePath: '/usr/bin/chromium',
+			args: [
+				'--no-sandbox',
+				'--disable-gpu',
+				'--disable-quic',
+				'--no-first-run',
+				'--disable-background-networking',
+				'--disable-component-update',
+				'--disable-sync'
+			]
+		}
+	},
+	webServer: {
+		command: 'node tests/e2e/support/serve.mjs',
+		url: `${E2E_ORIGIN}/`,
+		reuseExistingServer: false,
+		timeout: 60_000,
+		stdout: 'pipe',
+		stderr: 'pipe',
+		env: {
+			PORT: String(E2E_PORT),
+			ORIGIN: E2E_ORIGIN,
+			DATA_DIR: E2E_DATA_DIR,
+			DEMO_PASSWORD: 'demo-password-12'
+		}
+	}
+});

@@ -1,0 +1,96 @@
+import { expect, test } from '@playwright/test';
+import { newAccount, promoteToAdmin, signInViaApi, signUpViaApi } from './support/accounts';
+import { linkIn, newestMailTo } from './support/outbox';
+
+test('a learner signs up with the form, confirms the address from the mailed link, signs out and back in', async ({
+	page
+}) => {
+	const learner = newAccount('learner');
+
+	await page.goto('/sign-up');
+	await page.getByLabel('Your name').fill(learner.name);
+	await page.getByLabel('E-mail address').fill(learner.email);
+	await page.getByLabel('Password').fill(learner.password);
+	await page.getByRole('radio', { name: /I practise/ }).check();
+	await page.getByRole('button', { name: 'Create my account' }).click();
+	await expect(page).toHaveURL(/\/verify-email\?sent=1$/);
+
+	// The app's local SMTP stand-in files the mail in DATA_DIR/outbox; follow its link.
+	const mail = await newestMailTo(learner.email);
+	const link = linkIn(mail, '/verify-email');
+	expect(link.searchParams.get('token')).toBeTruthy();
+	await page.goto(link.pathname + link.search);
+	await expect(page.getByRole('heading', { level: 1 })).toHaveText(/confirmed/i);
+
+	const nav = page.getByRole('navigation', { name: 'Main' });
+	await page.goto('/home');
+	await expect(page.getByRole('heading', { level: 1 })).toHaveText(`Hello, Lou`);
+	await expect(nav.getByRole('link', { name: 'Today' })).toHaveAttribute('aria-current', 'page');
+	await expect(nav.getByRole('link', { name: 'Settings' })).toBeVisible();
+	await expect(nav.getByRole('link', { name: 'Teaching' })).toHaveCount(0);
+	await expect(nav.getByRole('link', { name: 'Outbox' })).toHaveCount(0);
+
+	await nav.getByRole('button', { name: 'Sign out' }).click();
+	await expect(page).toHaveURL(/\/$/);
+	await expect(page.getByRole('link', { name: 'Sign in' })).toBeVisible();
+	await page.goto('/home');
+	await expect(page).toHaveURL(/\/sign-in\?next=%2Fhome$/);
+
+	await page.getByLabel('E-mail address').fill(learner.email);
+	await page.getByLabel('Password').fill(learner.password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await expect(page).toHaveURL(/\/home$/);
+	await expect(page.getByText("Your teacher's decks appear here once you join a class.")).toBeVisible();
+});
+
+test('a learner is refused the teacher and admin pages with 403', async ({ page, request }) => {
+	const learner = newAccount('learner');
+	await signUpViaApi(request, learner);
+	await signInViaApi(page, learner);
+
+	for (const path of ['/teach', '/admin', '/admin/outbox']) {
+		const response = await page.goto(path);
+		expect(response?.status(), path).toBe(403);
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(/This page is for/);
+	}
+	const api = await page.request.get('/api/admin/outbox');
+	expect(api.status()).toBe(403);
+});
+
+test('a signed-out visitor is sent to sign in from every signed-in page', async ({ page }) => {
+	for (const path of ['/home', '/teach', '/admin/outbox']) {
+		await page.goto(path);
+		await expect(page, path).toHaveURL(new RegExp(`/sign-in\\?next=${encodeURIComponent(path)}$`));
+	}
+});
+
+test('a teacher sees the Teaching link and an honest empty studio', async ({ page, request }) => {
+	const teacher = newAccount('teacher');
+	await signUpViaApi(request, teacher);
+	await signInViaApi(page, teacher);
+
+	const response = await page.goto('/teach');
+	expect(response?.status()).toBe(200);
+	const nav = page.getByRole('navigation', { name: 'Main' });
+	await expect(nav.getByRole('link', { name: 'Teaching' })).toHaveAttribute('aria-current', 'page');
+	await expect(nav.getByRole('link', { name: 'Admin' })).toHaveCount(0);
+	await expect(page.getByText('Your classes will be listed here')).toBeVisible();
+	await expect(page.getByText('Your decks will be listed here')).toBeVisible();
+});
+
+test('an admin made with the CLI reaches the outbox and sees the sign-up mail', async ({
+	page,
+	request
+}) => {
+	const person = newAccount('learner', 'Ada Quill');
+	await signUpViaApi(request, person);
+	promoteToAdmin(person.email);
+	await signInViaApi(page, person);
+
+	await page.goto('/home');
+	const nav = page.getByRole('navigation', { name: 'Main' });
+	await expect(nav.getByRole('link', { name: 'Admin', exact: true })).toBeVisible();
+	await nav.getByRole('link', { name: 'Outbox' }).click();
+	await expect(page).toHaveURL(/\/admin\/outbox$/);
+	await expect(page.getByText(person.email).first()).toBeVisible();
+});

@@ -1,0 +1,49 @@
+import { expect, test, type Page } from '@playwright/test';
+import { newAccount, signInViaApi, signUpViaApi } from './support/accounts';
+
+/**
+ * Screenshots for the README (docs/screenshots/). Run on demand, since they rewrite tracked
+ * files: `SCREENSHOTS=1 npx playwright test screenshots`.
+ */
+test.skip(!process.env.SCREENSHOTS, 'set SCREENSHOTS=1 to refresh docs/screenshots');
+
+const dir = 'docs/screenshots';
+
+async function settle(page: Page) {
+	await page.evaluate(() => document.fonts.ready);
+	await page.waitForLoadState('networkidle');
+}
+
+for (const view of [
+	{ suffix: '', width: 1280, height: 800, scheme: 'light' as const },
+	{ suffix: '-mobile-dark', width: 390, height: 844, scheme: 'dark' as const }
+]) {
+	test.describe(`at ${view.width}px in ${view.scheme}`, () => {
+		test.use({ viewport: { width: view.width, height: view.height }, colorScheme: view.scheme });
+
+		test('landing, sign-in and the try-it box', async ({ page }) => {
+			await page.goto('/');
+			await settle(page);
+			await page.screenshot({ path: `${dir}/landing${view.suffix}.png` });
+
+			await page.getByLabel('Key', { exact: true }).selectOption('Eb');
+			await page.getByRole('button', { name: 'Show this key' }).click();
+			await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
+			await settle(page);
+			await page.locator('#try').screenshot({ path: `${dir}/try-it${view.suffix}.png` });
+
+			await page.goto('/sign-in');
+			await settle(page);
+			await page.screenshot({ path: `${dir}/sign-in${view.suffix}.png` });
+		});
+
+		test('the empty learner home', async ({ page, request }) => {
+			const learner = newAccount('learner');
+			await signUpViaApi(request, learner);
+			await signInViaApi(page, learner);
+			await page.goto('/home');
+			await settle(page);
+			await page.screenshot({ path: `${dir}/learner-home${view.suffix}.png`, fullPage: view.width > 500 });
+		});
+	});
+}

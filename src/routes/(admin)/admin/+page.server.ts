@@ -2,6 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { checkHealth } from '$lib/server/admin/health';
 import { countUsersByRole, listUsers } from '$lib/server/admin/users';
 import { normalizeEmail, promote } from '$lib/server/auth/accounts';
+import { readForm } from '$lib/server/auth/form';
 import { requireRole } from '$lib/server/auth/guard';
 import { ROLES } from '$lib/server/db/models/index';
 import type { Actions, PageServerLoad } from './$types';
@@ -22,7 +23,6 @@ export const load: PageServerLoad = async ({ url }) => {
 		adminId: admin.id,
 		counts,
 		users,
-		usersShown: USERS_SHOWN,
 		health,
 		roles: ROLES,
 		changed
@@ -32,13 +32,16 @@ export const load: PageServerLoad = async ({ url }) => {
 export const actions: Actions = {
 	setRole: async ({ request }) => {
 		const admin = requireRole('admin');
-		const form = await request.formData();
-		const email = form.get('email');
-		const role = form.get('role');
-		const typed = {
-			email: typeof email === 'string' ? email : '',
-			role: typeof role === 'string' ? role : ''
-		};
+		const form = await readForm(request);
+		if (!form) {
+			return fail(400, {
+				email: '',
+				role: '',
+				message: 'The form could not be read; send it again.'
+			});
+		}
+		const { email = '', role = '' } = form;
+		const typed = { email, role };
 		// Demoting yourself could leave the site without any admin; another admin must do it.
 		if (normalizeEmail(email) === admin.email) {
 			return fail(422, {

@@ -60,17 +60,21 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 					const readOctave = o === UNSET ? sig : o;
 					needs = readPitch !== p.alt || readOctave !== p.alt;
 				}
+				let acc = '';
 				if (needs) {
-					const acc = ACCIDENTAL_TEXT[p.alt];
+					acc = ACCIDENTAL_TEXT[p.alt];
 					if (acc === undefined) throw new RangeError(`Cannot write alteration ${p.alt} in abc`);
-					out += acc;
 					if (propagation !== 'not') {
 						byLetter[p.letter] = p.alt;
 						if (byOctave[slot] === UNSET) touched.push(slot);
 						byOctave[slot] = p.alt;
 					}
 				}
-				out += abcLetter(p) + (t.length as string);
+				// An unchanged note keeps its own text (`b,,` stays `b,,`, not `B,`).
+				const q = head.pitch;
+				if (acc === t.accidental && q.letter === p.letter && q.alt === p.alt && q.octave === p.octave) {
+					out += t.text;
+				} else out += acc + abcLetter(p) + (t.length as string);
 				break;
 			}
 			case 'bar':

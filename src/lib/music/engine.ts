@@ -9,6 +9,13 @@ import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
 import { degreeAt, readNote, type DegreeLabel } from './degrees';
 import { remapNotes } from './remap';
+import {
+	fitToRange,
+	getInstrument,
+	INSTRUMENT_IDS,
+	isInstrumentId,
+	type InstrumentId
+} from './instruments';
 import { isQualityId } from './qualities';
 import { formatKeyField, type KeySignature, type TritoneSpelling } from './keys';
 import {
@@ -25,7 +32,7 @@ import {
 	type Steps
 } from './pitch';
 import { simplifyNoteName, simplifySpelling } from './spelling';
-import { planKeys, shiftPlan, transposeNoteName, UNISON, type KeyPlan } from './transpose';
+import { planKeys, shiftPlan, transposeNoteName, type KeyPlan } from './transpose';
 import { QUALITY_IDS, type ChordContext, type KeyName, type MusicWarning, type PitchName, type QualityId } from './types';
 
 export type { AbcError } from './abc/tokenize';
@@ -249,11 +256,24 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 	const layer = layerFor(lick, options.quality ?? null);
 	const originalKeys = tune.keys.map((k) => k.key);
 	const concert: KeyPlan = planKeys(originalKeys, target, { tritone, octaves: options.octaves });
-	const instrument = options.instrument ?? 'concert';
+	const instrumentId = options.instrument === undefined ? null : options.instrument;
+	if (instrumentId !== null && !isInstrumentId(instrumentId)) {
+		throw new VariantRequestError(
+			`“${String(instrumentId)}” is not an instrument: use one of ${INSTRUMENT_IDS.join(', ')}.`
+		);
+	}
+	const instrument = instrumentId ?? 'concert';
 
 	const concertPitches = movePitches(tune, layer.pitches, concert.interval, concert.keys);
 	const concertChords = moveChords(tune, layer, concert.interval, concert.keys);
-	const written: KeyPlan = writtenPlan(instrument, originalKeys, concert, concertPitches, tritone);
+	const { plan: written, fitWarnings } = writtenPlan(
+		instrumentId,
+		originalKeys,
+		concert,
+		tune,
+		concertPitches,
+		tritone
+	);
 	const writtenPitches =
 		written === concert ? concertPitches : movePitches(tune, layer.pitches, written.interval, written.keys);
 	const writtenChords =
@@ -298,25 +318,51 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		writtenKey: formatKeyField(written.keys[0]),
 		quality: layer.quality,
 		instrument,
-		warnings: [...tune.warnings, ...layer.warnings, ...concert.warnings, ...(written === concert ? [] : written.warnings)],
+		warnings: [
+			...tune.warnings,
+			...layer.warnings,
+			...concert.warnings,
+			...(written === concert ? [] : written.warnings),
+			...fitWarnings
+		],
 		notes
 	};
 }
 
-/** The written key plan for an instrument: concert unless the instrument transposes. */
+/** The written key plan for an instrument: its transposition plus the octave that fits its range. */
 function writtenPlan(
-	instrument: string,
+	instrument: InstrumentId | null,
 	keys: readonly KeySignature[],
 	concert: KeyPlan,
+	tune: ParsedAbc,
 	pitches: readonly SpelledPitch[],
 	tritone: TritoneSpelling
-): KeyPlan {
-	void pitches;
-	if (instrument === 'concert') return concert;
-	throw new VariantRequestError(`“${instrument}” is not an instrument we know.`);
-	void keys;
-	void tritone;
-	return shiftPlan(keys, concert, UNISON, tritone);
+): { plan: KeyPlan; fitWarnings: MusicWarning[] } {
+	if (instrument === null) return { plan: concert, fitWarnings: [] };
+	const row = getInstrument(instrument);
+	const midis: number[] = [];
+	for (let i = 0; i < tune.heads.length; i++) {
+		const h = tune.heads[i];
+		if (!h.grace && !h.continuation) midis.push(midiOf(pitches[i]));
+	}
+	const fit = fitToRange(midis, instrument);
+	const by: Steps = {
+		steps: row.steps + 7 * fit.octaveShift,
+		semitones: row.semitones + 12 * fit.octaveShift
+	};
+	const shifted = shiftPlan(keys, concert, by, tritone);
+	const clefKeys = shifted.keys.map((k) => withClef(k, row.clef));
+	return { plan: { ...shifted, keys: clefKeys }, fitWarnings: fit.warnings };
+}
+
+const CLEF_TEXT = /(^|\s)(clef=\S+|treble(?:[+-]8)?|bass(?:[+-]8)?|alto|tenor|perc)(?=\s|$)/g;
+
+/** The key with the instrument's clef in its K: text (abc 2.1 §4.6), other settings kept. */
+function withClef(key: KeySignature, clef: string): KeySignature {
+	const rest = key.rest.replace(CLEF_TEXT, ' ').trim();
+	const clefText = clef === 'treble' ? '' : `clef=${clef}`;
+	const next = [clefText, rest].filter(Boolean).join(' ');
+	return next === key.rest ? key : { ...key, rest: next };
 }
 
 /**

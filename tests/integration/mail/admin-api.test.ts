@@ -166,7 +166,8 @@ describe('the admin JSON API', () => {
 			from: expect.any(String),
 			to: 'max@example.com',
 			subject: 'Confirm your e-mail address for Twelvefold',
-			date: expect.any(String)
+			date: expect.any(String),
+			receivedAt: expect.stringMatching(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/)
 		});
 	});
 

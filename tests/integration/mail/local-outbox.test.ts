@@ -115,7 +115,11 @@ describe('the local SMTP stand-in', () => {
 		]);
 		const ids = list.map((m) => m.id);
 		expect(ids).toEqual([...ids].sort().reverse());
-		for (const m of list) expect(Number.isNaN(Date.parse(m.date))).toBe(false);
+		for (const m of list) {
+			expect(Number.isNaN(Date.parse(m.date))).toBe(false);
+			// The arrival time is the id's timestamp, to the millisecond.
+			expect(m.receivedAt.replace(/[-:.]/g, '')).toBe(m.id.slice(0, 19));
+		}
 		expect(await countMessages()).toBe(list.length);
 		expect(await listMessages({ limit: 2 })).toEqual(list.slice(0, 2));
 	});
@@ -125,6 +129,20 @@ describe('the local SMTP stand-in', () => {
 		await writeFile(path.join(data.outbox, 'notes.txt'), 'not a mail');
 		await writeFile(path.join(data.outbox, '..evil.eml'), 'Subject: sneaky\r\n\r\nx');
 		expect(await countMessages()).toBe(count);
+	});
+
+	it('falls back to the arrival time for a message without a Date header', async () => {
+		const id = '20200101T000000000Z-abcdef';
+		await writeFile(
+			path.join(data.outbox, `${id}.eml`),
+			'Subject: no date\r\nTo: x@example.com\r\n\r\nbody\r\n'
+		);
+		const result = await readMessage(id);
+		expect(
+			result.ok && [result.message.date, result.message.receivedAt, result.message.text]
+		).toEqual(['2020-01-01T00:00:00.000Z', '2020-01-01T00:00:00.000Z', 'body\n']);
+		// Oldest by its name, so it lists last.
+		expect((await listMessages()).at(-1)?.id).toBe(id);
 	});
 
 	it.each([

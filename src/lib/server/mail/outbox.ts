@@ -15,8 +15,10 @@ export interface OutboxSummary {
 	from: string;
 	to: string;
 	subject: string;
-	/** ISO 8601 from the Date header, or from the id when the header is missing. */
+	/** ISO 8601 from the sender's Date header, or the arrival time when the header is missing. */
 	date: string;
+	/** ISO 8601 arrival time at the stand-in, read from the id. */
+	receivedAt: string;
 }
 
 export interface OutboxMessage extends OutboxSummary {
@@ -47,12 +49,14 @@ function dateFromId(id: string): string {
 }
 
 function summarise(id: string, mail: ParsedMail): OutboxSummary {
+	const receivedAt = dateFromId(id);
 	return {
 		id,
 		from: formatAddress(mail.from),
 		to: formatAddress(mail.to),
 		subject: mail.subject ?? '',
-		date: mail.date && !Number.isNaN(mail.date.getTime()) ? mail.date.toISOString() : dateFromId(id)
+		date: mail.date && !Number.isNaN(mail.date.getTime()) ? mail.date.toISOString() : receivedAt,
+		receivedAt
 	};
 }
 
@@ -113,12 +117,19 @@ export async function listMessages(
 ): Promise<OutboxSummary[]> {
 	const { dir = outboxDir(), limit = 200 } = options;
 	const ids = (await messageIds(dir)).sort().reverse().slice(0, limit);
-	return Promise.all(
+	const summaries = await Promise.all(
 		ids.map(async (id) => {
-			const header = await readHeaderBlock(path.join(dir, `${id}.eml`));
-			return summarise(id, await simpleParser(header));
+			try {
+				const header = await readHeaderBlock(path.join(dir, `${id}.eml`));
+				return summarise(id, await simpleParser(header));
+			} catch (error) {
+				// Removed between listing the folder and opening the file: no longer in the outbox.
+				if ((error as NodeJS.ErrnoException).code === 'ENOENT') return null;
+				throw error;
+			}
 		})
 	);
+	return summaries.filter((summary) => summary !== null);
 }
 
 const linkPattern = /https?:\/\/[^\s<>"'()]+/g;

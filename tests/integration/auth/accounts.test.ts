@@ -241,9 +241,9 @@ describe('changing the password', () => {
 		});
 		expect(await changePassword(user.id, PASSWORD, 'abc')).toMatchObject({ field: 'password' });
 		expect(await changePassword(user.id, PASSWORD, PASSWORD)).toMatchObject({ field: 'password' });
-		expect(
-			await changePassword(user.id, PASSWORD, 'comping-chords-9', here.session.id)
-		).toEqual({ ok: true });
+		expect(await changePassword(user.id, PASSWORD, 'comping-chords-9', here.session.id)).toEqual({
+			ok: true
+		});
 
 		expect((await validateSessionToken(here.token)).user?.id).toBe(user.id);
 		expect((await validateSessionToken(elsewhere.token)).user).toBeNull();

@@ -219,7 +219,8 @@ describe('rate limits', () => {
 				body: { email, password },
 				address: addr
 			});
-		for (let i = 0; i < 5; i++) expect((await attempt('wrong-guess-00', `198.51.100.${i}`)).status).toBe(401);
+		for (let i = 0; i < 5; i++)
+			expect((await attempt('wrong-guess-00', `198.51.100.${i}`)).status).toBe(401);
 		const limited = await attempt(PASSWORD, '198.51.100.99');
 		expect(limited.status).toBe(429);
 		const retryAfter = Number(limited.headers.get('Retry-After'));

@@ -54,8 +54,7 @@ export function fakeEvent(input: FakeEventInput = {}) {
 	const request = new Request(url, {
 		method,
 		headers,
-		body:
-			body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body)
+		body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body)
 	});
 	return {
 		request,

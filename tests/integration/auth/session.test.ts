@@ -59,9 +59,12 @@ describe('sessions', () => {
 		expect(await validateSessionToken(hashToken(token))).toEqual({ user: null, session: null });
 	});
 
-	test.each(['', 'garbage', 'x'.repeat(5000)])('a made-up token %# finds nothing', async (token) => {
-		expect(await validateSessionToken(token)).toEqual({ user: null, session: null });
-	});
+	test.each(['', 'garbage', 'x'.repeat(5000)])(
+		'a made-up token %# finds nothing',
+		async (token) => {
+			expect(await validateSessionToken(token)).toEqual({ user: null, session: null });
+		}
+	);
 
 	test('an expired session is refused and removed', async () => {
 		const { token, session } = await createSession(userId);

@@ -344,9 +344,7 @@ export async function resetPassword(
 }
 
 export type ChangePasswordResult =
-	| { ok: true }
-	| Invalid
-	| { ok: false; reason: 'not-found'; message: string };
+	{ ok: true } | Invalid | { ok: false; reason: 'not-found'; message: string };
 
 /**
  * Change a password after checking the current one. Every other session of the account ends;
@@ -385,15 +383,16 @@ export async function changePassword(
 }
 
 export type DeleteAccountResult =
-	| { ok: true }
-	| Invalid
-	| { ok: false; reason: 'not-found'; message: string };
+	{ ok: true } | Invalid | { ok: false; reason: 'not-found'; message: string };
 
 /**
  * Delete an account after checking its password. The database cascades the delete to
  * everything that references the user: sessions, tokens, and the learner's practice data.
  */
-export async function deleteAccount(userId: string, password: unknown): Promise<DeleteAccountResult> {
+export async function deleteAccount(
+	userId: string,
+	password: unknown
+): Promise<DeleteAccountResult> {
 	if (typeof password !== 'string' || password.length === 0) {
 		return invalid('password', 'Enter your password to confirm.');
 	}

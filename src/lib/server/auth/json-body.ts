@@ -4,8 +4,7 @@ import { json } from '@sveltejs/kit';
 const MAX_BODY_BYTES = 16 * 1024;
 
 export type JsonBody =
-	| { ok: true; value: Record<string, unknown> }
-	| { ok: false; response: Response };
+	{ ok: true; value: Record<string, unknown> } | { ok: false; response: Response };
 
 /**
  * A request's body as a JSON object, or a ready 400/413/415 answer that says what is wrong.

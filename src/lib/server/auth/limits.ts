@@ -36,7 +36,9 @@ let limiters: Record<AuthLimitName, RateLimiter> | null = null;
  * Replace the limits (tests use small windows and maxima); with no argument, go back to the
  * defaults. Either way every count starts from zero.
  */
-export function configureAuthLimits(overrides: Partial<Record<AuthLimitName, RateLimiterOptions>> = {}) {
+export function configureAuthLimits(
+	overrides: Partial<Record<AuthLimitName, RateLimiterOptions>> = {}
+) {
 	const factor = scale();
 	const built = {} as Record<AuthLimitName, RateLimiter>;
 	for (const name of Object.keys(AUTH_LIMITS) as AuthLimitName[]) {
@@ -59,7 +61,10 @@ export type LimitVerdict = { allowed: true } | { allowed: false; retryAfterSecon
 function worst(...results: { allowed: boolean; retryAfterSeconds: number }[]): LimitVerdict {
 	const refused = results.filter((r) => !r.allowed);
 	if (refused.length === 0) return { allowed: true };
-	return { allowed: false, retryAfterSeconds: Math.max(...refused.map((r) => r.retryAfterSeconds)) };
+	return {
+		allowed: false,
+		retryAfterSeconds: Math.max(...refused.map((r) => r.retryAfterSeconds))
+	};
 }
 
 /** A loose e-mail key: the same address in any case or spacing counts once. */

@@ -143,8 +143,7 @@ export async function createSession(
 }
 
 export type ValidatedSession =
-	| { user: SessionUser; session: SessionInfo }
-	| { user: null; session: null };
+	{ user: SessionUser; session: SessionInfo } | { user: null; session: null };
 
 /** Look a cookie's token up; expired sessions are removed, sessions in their second half extended. */
 export async function validateSessionToken(token: string): Promise<ValidatedSession> {

@@ -25,8 +25,7 @@ type OpenCallback = (err: Error | null) => void;
 class TunedDatabase extends sqlite3.Database {
 	constructor(filename: string, mode?: number | OpenCallback, callback?: OpenCallback) {
 		const done: OpenCallback = typeof mode === 'function' ? mode : (callback ?? (() => {}));
-		const openMode =
-			typeof mode === 'number' ? mode : sqlite3.OPEN_READWRITE | sqlite3.OPEN_CREATE;
+		const openMode = typeof mode === 'number' ? mode : sqlite3.OPEN_READWRITE | sqlite3.OPEN_CREATE;
 		super(filename, openMode, (err) => {
 			if (err) return done(err);
 			this.configure('busyTimeout', BUSY_TIMEOUT_MS);

@@ -15,7 +15,8 @@ export const actions: Actions = {
 	default: async ({ request, cookies, getClientAddress }) => {
 		const form = await readForm(request);
 		const empty = { name: '', email: '', role: 'learner' };
-		if (!form) return fail(400, { values: empty, field: null, message: 'The form could not be read.' });
+		if (!form)
+			return fail(400, { values: empty, field: null, message: 'The form could not be read.' });
 		const values = {
 			name: form.name ?? '',
 			email: form.email ?? '',

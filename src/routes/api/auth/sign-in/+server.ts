@@ -29,5 +29,8 @@ export const POST: RequestHandler = async ({ request, cookies, getClientAddress 
 	const { token, session } = await createSession(result.user.id);
 	setSessionCookie(cookies, token, session.expiresAt);
 	const { id, name, role, emailVerified } = result.user;
-	return json({ user: { id, name, email: result.user.email, role, emailVerified } }, { status: 200 });
+	return json(
+		{ user: { id, name, email: result.user.email, role, emailVerified } },
+		{ status: 200 }
+	);
 };

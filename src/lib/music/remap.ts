@@ -15,7 +15,8 @@
  * is re-derived backwards from its target, a half step at a time (a 3 → R fill on D7 becomes
  * F F E Eb D on Dm7: the fill now spans a minor third, one passing tone too many, and a warning
  * says so); a note outside the source scale, or a half step off a following chord tone, becomes
- * the same approach (same side, same distance) to that chord tone after it moved.
+ * the same approach (same side, same distance) to that note after it moved; targets are chord
+ * tones or notes of the parent scale (an enclosure of the 9 keeps its shape).
  *
  * Which chord a note is mapped over: the chord in force (`note.chord`) when it has the home root
  * or the source quality, else the note is left as written (the other chords of a progression
@@ -286,17 +287,21 @@ export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions
 		a = b - 1;
 	}
 
-	// 3. Single approach tones, then everything else by degree.
+	// 3. Everything else by degree, then single approach tones from where their targets went.
+	const targets = new Array<number>(n).fill(-1);
 	for (let i = 0; i < n; i++) {
 		if (done[i]) continue;
-		const target = approachTarget(notes, roots, isTone, F, semis, i);
-		if (target >= 0) {
-			const offset = notes[i].midi - notes[target].midi;
-			const midi = midis[target] + offset;
-			const root = roots[i]!;
-			const table = offset > 0 ? DESCENDING_SPELLING : ASCENDING_SPELLING;
-			place(i, midi, table[mod12(midi - LETTER_SEMITONES[root.letter] - root.alt)]);
-		} else byDegree(i);
+		targets[i] = approachTarget(notes, roots, isTone, F, semis, i);
+		if (targets[i] < 0) byDegree(i);
+	}
+	for (let i = 0; i < n; i++) {
+		const target = targets[i];
+		if (target < 0) continue;
+		const offset = notes[i].midi - notes[target].midi;
+		const midi = midis[target] + offset;
+		const root = roots[i]!;
+		const table = offset > 0 ? DESCENDING_SPELLING : ASCENDING_SPELLING;
+		place(i, midi, table[mod12(midi - LETTER_SEMITONES[root.letter] - root.alt)]);
 	}
 
 	// 4. A note with a second home takes it when its first one collides with a neighbour and the
@@ -353,10 +358,11 @@ function matchingSpans(T: QualityTable, span: number, d: number): [number, numbe
 }
 
 /**
- * The chord tone a note approaches, or -1. Only notes outside the parent scale approach (an
- * altered tension or a chromatic note): a half step off the next note when that is a chord tone
- * (a whole step when the note is outside every scale of the chord), or within a whole step of
- * the chord tone after it when the note between lies on the target's other side (an enclosure).
+ * The note a note approaches, or -1. Only notes outside the parent scale approach (an altered
+ * tension or a chromatic note), and only chord tones or parent-scale notes are targets (those
+ * are mapped first): a half step off the next note (a whole step when the note is outside every
+ * scale of the chord), or within a whole step of the note after it when the note between lies on
+ * the target's other side (an enclosure).
  */
 function approachTarget(
 	notes: readonly SoundingNote[],
@@ -368,15 +374,16 @@ function approachTarget(
 ): number {
 	// Steps of the parent scale itself (11 → 3 on a dominant) are melody, not approaches.
 	if (F.inParentScale[semis[i]]) return -1;
+	const isTarget = (t: number) => !roots[t] || isTone[t] || F.inParentScale[semis[t]];
 	const here = notes[i].midi;
 	const outside = !F.inScale[semis[i]];
 	const next = i + 1;
-	if (next < notes.length && (isTone[next] || !roots[next])) {
+	if (next < notes.length && isTarget(next)) {
 		const d = Math.abs(notes[next].midi - here);
 		if (d === 1 || (outside && d === 2)) return next;
 	}
 	const after = i + 2;
-	if (after < notes.length && (isTone[after] || !roots[after])) {
+	if (after < notes.length && isTarget(after)) {
 		const t = notes[after].midi;
 		const d = here - t;
 		const between = notes[next].midi - t;

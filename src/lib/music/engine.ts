@@ -9,6 +9,7 @@ import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
 import { degreeAt, readNote, type DegreeLabel } from './degrees';
 import { remapNotes } from './remap';
+import { analyseNotes, type Device } from './analysis';
 import {
 	fitToRange,
 	getInstrument,
@@ -60,6 +61,8 @@ export interface VariantOptions {
 	tritone?: TritoneSpelling;
 	/** Extra octaves to move the line (before any instrument fitting). */
 	octaves?: number;
+	/** Also recognise devices (arpeggios, fills, enclosures, leaps) in the variant. */
+	analyse?: boolean;
 }
 
 export interface VariantSuccess {
@@ -74,6 +77,8 @@ export interface VariantSuccess {
 	instrument: string;
 	warnings: MusicWarning[];
 	notes: VariantNote[];
+	/** Devices the line uses, when asked for with `analyse`. */
+	devices?: Device[];
 }
 
 export type VariantResult = VariantSuccess | { ok: false; error: AbcError };
@@ -311,6 +316,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		};
 	}
 	const firstKey = concert.keys[0];
+	const devices = options.analyse ? analyseNotes(notes).devices : undefined;
 	return {
 		ok: true,
 		abc,
@@ -325,7 +331,8 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			...(written === concert ? [] : written.warnings),
 			...fitWarnings
 		],
-		notes
+		notes,
+		...(devices ? { devices } : {})
 	};
 }
 
@@ -377,7 +384,7 @@ export function computeVariant(
 	const prepared = prepareLick(request.abc);
 	if (!prepared.ok) return prepared;
 	try {
-		return renderVariant(prepared.lick, request);
+		return renderVariant(prepared.lick, { analyse: true, ...request });
 	} catch (e) {
 		if (e instanceof VariantRequestError) return { ok: false, error: { message: e.message } };
 		throw e;

@@ -9,7 +9,8 @@ import {
 import { sequence } from '@sveltejs/kit/hooks';
 import { building } from '$app/environment';
 import { migrate } from '$lib/server/db/migrate';
-import { startMail } from '$lib/server/mail';
+import { startMail, stopMail } from '$lib/server/mail';
+import { closeDb } from '$lib/server/db';
 import { signInUrl } from '$lib/server/auth/redirects';
 import {
 	deleteSessionCookie,
@@ -23,6 +24,11 @@ export const init: ServerInit = async () => {
 	if (building) return;
 	await migrate();
 	await startMail();
+	// adapter-node emits this after SIGTERM/SIGINT once requests have drained; the SMTP stand-in
+	// and the database handle would otherwise keep the process alive.
+	process.once('sveltekit:shutdown', () => {
+		void stopMail().then(closeDb);
+	});
 };
 
 /** Who is asking: the session cookie's token looked up (hashed) in the database. */

@@ -1,0 +1,91 @@
+/**
+ * The public transposition endpoint's edge: its rate limit and the reading of its loose JSON
+ * input into engine options. Kept out of the route file because a `+server.ts` may export only
+ * its HTTP handlers, and tests need to reset the limiter.
+ */
+import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from '../auth/rate-limit';
+import {
+	INSTRUMENT_IDS,
+	isInstrumentId,
+	isQualityId,
+	QUALITY_IDS,
+	readKeyName,
+	VariantRequestError,
+	type VariantOptions
+} from '$lib/music';
+
+/** The largest request body read, in bytes (the abc itself may be at most 20 KB too). */
+export const MAX_TRANSPOSE_BODY_BYTES = 20 * 1024;
+
+/** 60 requests a minute per client address: plenty for a person trying licks, not for a scraper. */
+export const TRANSPOSE_LIMIT: RateLimiterOptions = { max: 60, windowMs: 60_000 };
+
+let limiter: RateLimiter = createRateLimiter(TRANSPOSE_LIMIT);
+
+/** The limiter in use; `configureTransposeLimit` replaces it (tests use small windows). */
+export function transposeLimiter(): RateLimiter {
+	return limiter;
+}
+
+export function configureTransposeLimit(options: RateLimiterOptions = TRANSPOSE_LIMIT): void {
+	limiter = createRateLimiter(options);
+}
+
+export type TransposeInput =
+	| { ok: true; abc: string; options: VariantOptions }
+	| { ok: false; status: 400 | 422; message: string };
+
+const FIELDS = ['abc', 'to', 'quality', 'instrument', 'tritone'];
+
+/**
+ * Check the JSON body's fields and types; the engine checks the music.
+ * @example readTransposeInput({ abc: 'X:1\nK:C\nC', to: 'Eb' }) // { ok: true, … }
+ */
+export function readTransposeInput(body: unknown): TransposeInput {
+	if (!body || typeof body !== 'object' || Array.isArray(body)) {
+		return { ok: false, status: 400, message: 'The body must be a JSON object such as {"abc": "X:1\\nK:C\\nCDEF|"}.' };
+	}
+	const value = body as Record<string, unknown>;
+	const unknown = Object.keys(value).filter((k) => !FIELDS.includes(k));
+	if (unknown.length) {
+		return { ok: false, status: 400, message: `Unknown field ${unknown.map((k) => `“${k}”`).join(', ')}: send abc, to, quality, instrument or tritone.` };
+	}
+	const { abc, to, quality, instrument, tritone } = value;
+	if (typeof abc !== 'string' || abc.trim() === '') {
+		return { ok: false, status: 400, message: 'Send the lick as a non-empty string in “abc”.' };
+	}
+	for (const [name, v] of Object.entries({ to, quality, instrument, tritone })) {
+		if (v !== undefined && v !== null && typeof v !== 'string') {
+			return { ok: false, status: 400, message: `“${name}” must be a string.` };
+		}
+	}
+	const options: VariantOptions = {};
+	if (typeof to === 'string' && to !== '') {
+		try {
+			readKeyName(to);
+		} catch (e) {
+			if (e instanceof VariantRequestError) return { ok: false, status: 422, message: e.message };
+			throw e;
+		}
+		options.to = to;
+	}
+	if (typeof quality === 'string' && quality !== '') {
+		if (!isQualityId(quality)) {
+			return { ok: false, status: 422, message: `“${quality}” is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.` };
+		}
+		options.quality = quality;
+	}
+	if (typeof instrument === 'string' && instrument !== '') {
+		if (!isInstrumentId(instrument)) {
+			return { ok: false, status: 422, message: `“${instrument}” is not an instrument: use one of ${INSTRUMENT_IDS.join(', ')}.` };
+		}
+		options.instrument = instrument;
+	}
+	if (typeof tritone === 'string' && tritone !== '') {
+		if (tritone !== 'Gb' && tritone !== 'F#') {
+			return { ok: false, status: 422, message: `“${tritone}” is not a tritone spelling: use Gb or F#.` };
+		}
+		options.tritone = tritone;
+	}
+	return { ok: true, abc, options };
+}

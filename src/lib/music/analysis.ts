@@ -191,12 +191,16 @@ function describeArpeggio(
 			degrees: labels,
 			label: `${what} arpeggio (${names.join(' ')}): the chord tones of ${chord.symbol}, ${labels.join(' ')}.`
 		};
-	const ordered = (bottom === notes[a] ? labels : [...labels].reverse()).join(' ');
-	const sound = chord.quality ? SOUNDS[chord.quality]?.[ordered] : undefined;
+	// The chord is named by its first four notes (or three); so is the sound it makes.
+	const named = labels.slice(0, Math.min(labels.length, 4));
+	const up = bottom === notes[a];
+	const ordered = (up ? labels : [...labels].reverse()).join(' ');
+	const key = (up ? named : [...named].reverse()).join(' ');
+	const sound = chord.quality ? SOUNDS[chord.quality]?.[key] : undefined;
 	const colours = [
 		...new Set(degrees.slice(a, b + 1).filter((d) => d && d.role !== 'chord-tone'))
 	].map((d) => `the ${d!.label}`);
-	const from = degrees[bottom === notes[a] ? a : b]?.label;
+	const from = degrees[up ? a : a + named.length - 1]?.label;
 	return {
 		...base,
 		degrees: labels,

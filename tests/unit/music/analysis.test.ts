@@ -1,0 +1,209 @@
+import { describe, expect, it } from 'vitest';
+import { Chord, Interval } from 'tonal';
+import { analyseNotes, intervalWords } from '../../../src/lib/music/analysis';
+import { lineOver } from './line-helper';
+
+const devicesOf = (chords: Parameters<typeof lineOver>[0], line: string) =>
+	analyseNotes(lineOver(chords, line)).devices;
+const kinds = (chords: Parameters<typeof lineOver>[0], line: string) =>
+	devicesOf(chords, line).map((d) => d.kind);
+
+describe('analyseNotes: arpeggios', () => {
+	it('names a maj7 arpeggio from the b7 of G7 and the extensions it gives (REFERENCES.md §3)', () => {
+		const [d] = devicesOf('G7', 'F4 A4 C5 E5');
+		// reference: tonal 6.5.1 Chord.detect(['F', 'A', 'C', 'E']) is ['Fmaj7']
+		expect(Chord.detect(['F', 'A', 'C', 'E'])).toContain(d.chord);
+		expect(d).toMatchObject({
+			kind: 'arpeggio',
+			start: 0,
+			end: 3,
+			chord: 'Fmaj7',
+			degrees: ['b7', '9', '11', '13']
+		});
+		expect(d.label).toContain('G9sus4 / G13sus4');
+		expect(d.label).toContain('b7');
+	});
+
+	it('reads the same arpeggio going down, stacked from its lowest note', () => {
+		const [d] = devicesOf('G7', 'E5 C5 A4 F4');
+		expect(d).toMatchObject({ chord: 'Fmaj7', degrees: ['13', '11', '9', 'b7'] });
+		expect(d.label).toContain('G13sus4');
+	});
+
+	it.each([
+		['G7', 'B4 D5 F5 A5', 'Bm7b5', 'G9'],
+		['Cmaj7', 'E4 G4 B4 D5', 'Em7', 'Cmaj9'],
+		['Dm7', 'F4 A4 C5 E5', 'Fmaj7', 'Dm9'],
+		['G7', 'Eb4 G4 Bb4', 'Eb', 'G7#5#9'],
+		['Cmaj7', 'D5 F#5 A5', 'D', 'Cmaj7#11']
+	])('over %s hears %s as %s, the sound of %s', (chord, line, symbol, sound) => {
+		const [d] = devicesOf(chord, line);
+		expect(d.chord).toBe(symbol);
+		// reference: tonal 6.5.1 Chord.detect names the same chord from the pitch classes
+		const names = line.split(' ').map((p) => p.replace(/\d/, ''));
+		expect(Chord.detect(names).map((c) => c.replace(/M$/, ''))).toContain(symbol);
+		expect(d.label).toContain(`the sound of ${sound}`);
+	});
+
+	it('calls an arpeggio of the chord itself its chord tones', () => {
+		const [d] = devicesOf('G7', 'G4 B4 D5 F5');
+		expect(d).toMatchObject({ chord: 'G7', degrees: ['R', '3', '5', 'b7'] });
+		expect(d.label).toContain('chord tones of G7');
+	});
+
+	it('names an arpeggio without a chord in force, and finds none in steps or fourths', () => {
+		expect(devicesOf(null, 'A4 C5 E5')[0]).toMatchObject({ chord: 'Am', start: 0, end: 2 });
+		expect(devicesOf(null, 'A4 C5 E5')[0].degrees).toBeUndefined();
+		expect(kinds('C7', 'C4 D4 E4 F4 G4')).toEqual([]);
+		expect(kinds('C7', 'C4 F4 Bb4 Eb5')).toEqual([]);
+	});
+});
+
+describe('analyseNotes: chromatic fills', () => {
+	it('finds the D7 fill from the 3 down to the R (REFERENCES.md §3)', () => {
+		const [d] = devicesOf('D7', 'F#4 F4 E4 Eb4 D4');
+		expect(d).toMatchObject({
+			kind: 'chromatic-fill',
+			start: 0,
+			end: 4,
+			degrees: ['3', '#9', '9', 'b9', 'R']
+		});
+		expect(d.label).toContain('major third from the 3 down to the R');
+		expect(d.label).toContain('fall on a beat');
+	});
+
+	it('finds the Dm7 fill from the 5 down to the b3', () => {
+		const [d] = devicesOf('Dm7', 'A4 Ab4 G4 Gb4 F4');
+		expect(d).toMatchObject({ start: 0, end: 4, degrees: ['5', 'b5', '11', '3', 'b3'] });
+	});
+
+	it('finds a minor-third fill going up, and no fill that does not end on a chord tone', () => {
+		expect(devicesOf('C7', 'G4 Ab4 A4 Bb4')[0].label).toContain(
+			'minor third from the 5 up to the b7'
+		);
+		expect(kinds('C7', 'A4 Ab4 G4 Gb4')).toEqual([]);
+		expect(kinds(null, 'F#4 F4 E4 Eb4 D4')).toEqual([]);
+	});
+
+	it('does not say the chord tones fall on beats when the fill starts off the beat', () => {
+		const [d] = devicesOf('D7', 'A4 F#4 F4 E4 Eb4 D4').filter((x) => x.kind === 'chromatic-fill');
+		expect(d.start).toBe(1);
+		expect(d.label).not.toContain('beat');
+	});
+});
+
+describe('analyseNotes: enclosures', () => {
+	it.each([
+		['G7', 'C5 A#4 B4', 'A chromatic enclosure of the 3 (B4)'],
+		['G7', 'A#4 C5 B4', 'A chromatic enclosure of the 3 (B4)'],
+		['D7', 'E4 C#4 D4', 'An enclosure of the R (D4)'],
+		['C7', 'E4 C#4 D4', 'An enclosure of the 9 (D4)']
+	])('over %s finds in %s: %s', (chord, line, label) => {
+		const d = devicesOf(chord, line).find((x) => x.kind === 'enclosure')!;
+		expect(d).toMatchObject({ start: 0, end: 2 });
+		expect(d.label).toContain(label);
+	});
+
+	it('needs one note on each side, each within a whole step, and a target that is no avoid note', () => {
+		expect(kinds('G7', 'C5 C#5 B4')).toEqual([]);
+		expect(kinds('G7', 'D5 A4 B4')).toEqual([]);
+		expect(kinds('C7', 'G4 E4 F4')).toEqual([]);
+	});
+});
+
+describe('analyseNotes: leaps', () => {
+	it.each([
+		['D4 Bb4', 8, 'minor sixth up'],
+		['C4 G#4', 8, 'augmented fifth up'],
+		['A4 C4', -9, 'major sixth down'],
+		['C4 C5', 12, 'octave up'],
+		['C4 E5', 16, 'major tenth up']
+	])('finds a leap in %s (%i semitones): a %s', (line, semitones, words) => {
+		const [d] = devicesOf('C7', line).filter((x) => x.kind === 'leap');
+		expect(d).toMatchObject({ start: 0, end: 1, semitones });
+		expect(d.label).toContain(words);
+	});
+
+	it('counts a minor sixth (8 semitones) and up as a leap, not a fifth', () => {
+		expect(kinds('C7', 'C4 G4')).toEqual([]);
+		expect(kinds('C7', 'C4 Ab4')).toEqual(['leap']);
+	});
+});
+
+describe('intervalWords', () => {
+	it('agrees with tonal 6.5.1 Interval.distance on the quality and number', () => {
+		const cases = [
+			['C4', 'Ab4'],
+			['C4', 'G#4'],
+			['D4', 'B4'],
+			['E4', 'D5'],
+			['F4', 'E5'],
+			['C4', 'Eb5'],
+			['B3', 'F4'],
+			['C4', 'C5']
+		];
+		const words: Record<string, string> = {
+			m: 'minor',
+			M: 'major',
+			P: 'perfect',
+			A: 'augmented',
+			d: 'diminished'
+		};
+		const numbers = [
+			'',
+			'unison',
+			'second',
+			'third',
+			'fourth',
+			'fifth',
+			'sixth',
+			'seventh',
+			'octave',
+			'ninth',
+			'tenth'
+		];
+		for (const [a, b] of cases) {
+			// reference: tonal 6.5.1 Interval.distance
+			const iv = Interval.get(Interval.distance(a, b));
+			const expected =
+				iv.num === 8 && iv.q === 'P' ? 'octave' : `${words[iv.q]} ${numbers[iv.num]}`;
+			expect(intervalWords(a, b), `${a}-${b}`).toBe(expected);
+		}
+	});
+});
+
+describe('analyseNotes: degrees', () => {
+	it('labels each note over its chord in force, and none before the first chord', () => {
+		const r = analyseNotes(lineOver([null, 'E7'], 'E4 | F4 G4 A4 C5 C#5'));
+		expect(r.degrees.map((d) => d?.label ?? null)).toEqual([null, 'b9', '#9', '11', 'b13', '13']);
+	});
+
+	it('returns nothing for an empty line and sorts devices by where they start', () => {
+		expect(analyseNotes([])).toEqual({ degrees: [], devices: [] });
+		const devices = devicesOf('G7', 'C5 A#4 B4 D4 F4 A4 C5 E5');
+		expect(devices.map((d) => d.start)).toEqual(
+			[...devices.map((d) => d.start)].sort((a, b) => a - b)
+		);
+		expect(devices.map((d) => d.kind)).toEqual(['enclosure', 'leap', 'arpeggio']);
+	});
+});
+
+describe('analyseNotes: longer arpeggios', () => {
+	it('names a run of five thirds by its first four notes and keeps every degree', () => {
+		const [d] = devicesOf('G7', 'D5 F5 A5 C6 E6');
+		expect(d).toMatchObject({
+			chord: 'Dm7',
+			start: 0,
+			end: 4,
+			degrees: ['5', 'b7', '9', '11', '13']
+		});
+		expect(d.label).toContain('built on its 5');
+		expect(d.label).toContain('the sound of G11');
+	});
+
+	it('names a falling run of five thirds from the lowest of its first four notes', () => {
+		const [d] = devicesOf('G7', 'E6 C6 A5 F5 D5');
+		expect(d).toMatchObject({ chord: 'Fmaj7', degrees: ['13', '11', '9', 'b7', '5'] });
+		expect(d.label).toContain('built on its b7');
+	});
+});

@@ -316,7 +316,8 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		};
 	}
 	const firstKey = concert.keys[0];
-	const devices = options.analyse ? analyseNotes(notes).devices : undefined;
+	const analysis = options.analyse ? analyseSafely(notes) : null;
+	const devices = analysis?.devices;
 	return {
 		ok: true,
 		abc,
@@ -329,11 +330,29 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			...layer.warnings,
 			...concert.warnings,
 			...(written === concert ? [] : written.warnings),
-			...fitWarnings
+			...fitWarnings,
+			...(analysis?.warning ? [analysis.warning] : [])
 		],
 		notes,
 		...(devices ? { devices } : {})
 	};
+}
+
+/**
+ * Devices of a line. Analysis is a bonus on top of the variant: should it fail on an odd line
+ * (for example notes before the first chord symbol), the variant still stands, with a warning.
+ */
+function analyseSafely(notes: VariantNote[]): { devices?: Device[]; warning?: MusicWarning } {
+	try {
+		return { devices: analyseNotes(notes).devices };
+	} catch (e) {
+		return {
+			warning: {
+				code: 'analysis-failed',
+				message: `The devices of this line could not be worked out (${e instanceof Error ? e.message : String(e)}).`
+			}
+		};
+	}
 }
 
 /** The written key plan for an instrument: its transposition plus the octave that fits its range. */

@@ -114,7 +114,9 @@ export function fitToRange(concertMidis: readonly number[], id: InstrumentId): R
 	const span = high - low;
 	const room = instrument.high - instrument.low;
 	const range = `${midiName(instrument.low)}–${midiName(instrument.high)}`;
-	const name = instrument.label.replace(/ \(.*\)$/, '').replace(/^(\w)(?!-)/, (c) => c.toLowerCase());
+	const name = instrument.label
+		.replace(/ \(.*\)$/, '')
+		.replace(/^(\w)(?!-)/, (c) => c.toLowerCase());
 	const why =
 		span > room
 			? `The line spans ${span} semitones, more than the ${room} of the ${name}'s written range ${range}`

@@ -33,6 +33,7 @@ test.describe('axe-core finds no serious or critical violation', () => {
 
 			test('on the try-it box with a result shown', async ({ page }) => {
 				await page.goto('/');
+				await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
 				await page.getByRole('button', { name: 'Show this key' }).click();
 				await expect(page.getByTestId('try-result')).toBeVisible();
 				expect(await seriousViolations(page)).toEqual([]);

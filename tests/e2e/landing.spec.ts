@@ -1,4 +1,10 @@
-import { expect, test } from '@playwright/test';
+import { expect, test, type Page } from '@playwright/test';
+
+/** Open the landing page and wait until the try-it box is interactive (hydrated). */
+async function openTryIt(page: Page) {
+	await page.goto('/');
+	await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+}
 
 test('the landing page answers 200, names the product and says the job', async ({ page }) => {
 	const response = await page.goto('/');
@@ -16,7 +22,7 @@ test('the landing page answers 200, names the product and says the job', async (
 
 test.describe('the try-it box', () => {
 	test('writes the lick in another key with notation and degree labels', async ({ page }) => {
-		await page.goto('/');
+		await openTryIt(page);
 		await page.getByLabel('Key', { exact: true }).selectOption('Eb');
 		await page.getByRole('button', { name: 'Show this key' }).click();
 
@@ -32,7 +38,7 @@ test.describe('the try-it box', () => {
 	});
 
 	test('a guitar adds a tablature staff', async ({ page }) => {
-		await page.goto('/');
+		await openTryIt(page);
 		await page.getByLabel('Instrument').selectOption('guitar');
 		await page.getByRole('button', { name: 'Show this key' }).click();
 		const notation = page.getByTestId('try-result').getByTestId('notation');
@@ -41,7 +47,7 @@ test.describe('the try-it box', () => {
 	});
 
 	test('a broken lick gets an error with its line and column', async ({ page }) => {
-		await page.goto('/');
+		await openTryIt(page);
 		await page.getByLabel('Your lick in abc notation').fill('X:1\nM:4/4\nL:1/8\nK:C\n"C7 c d e f |');
 		await page.getByRole('button', { name: 'Show this key' }).click();
 		const error = page.getByTestId('abc-error');
@@ -52,7 +58,7 @@ test.describe('the try-it box', () => {
 	});
 
 	test('shows the lick in all twelve keys, one after another', async ({ page }) => {
-		await page.goto('/');
+		await openTryIt(page);
 		await page.getByRole('button', { name: 'All twelve keys' }).click();
 		const list = page.getByRole('list', { name: 'The lick in every key' });
 		await expect(list.getByRole('listitem')).toHaveCount(12, { timeout: 20_000 });

@@ -26,6 +26,7 @@ for (const view of [
 			await settle(page);
 			await page.screenshot({ path: `${dir}/landing${view.suffix}.png` });
 
+			await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
 			await page.getByLabel('Key', { exact: true }).selectOption('Eb');
 			await page.getByRole('button', { name: 'Show this key' }).click();
 			await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();

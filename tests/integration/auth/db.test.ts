@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { QueryTypes } from 'sequelize';
+import { Op, QueryTypes } from 'sequelize';
 import { migrate } from '../../../src/lib/server/db/migrate';
 import { sqliteStorageOf } from '../../../src/lib/server/db/index';
 import { EmailToken, Session, User } from '../../../src/lib/server/db/models/index';
@@ -44,6 +44,61 @@ describe('the database layer', () => {
 		const expected = { fk: 1, journal: 'wal', busy: 5000 };
 		expect(await pragmas()).toEqual(expected);
 		expect(await world.db.transaction((t) => pragmas(t))).toEqual(expected);
+	});
+
+	test('thirty concurrent write transactions all commit: each waits for the lock instead of failing busy', async () => {
+		const results = await Promise.allSettled(
+			Array.from({ length: 30 }, (_, i) =>
+				world.db.transaction(async (transaction) => {
+					const user = await User.create(
+						{ email: `writer${i}@case.test`, name: `W${i}`, passwordHash: 'x' },
+						{ transaction }
+					);
+					// A read then a write in one transaction: the pattern that fails under DEFERRED.
+					await User.count({ transaction });
+					user.name = `Writer ${i}`;
+					await user.save({ transaction });
+				})
+			)
+		);
+		expect(results.filter((r) => r.status === 'rejected')).toEqual([]);
+		expect(await User.count({ where: { name: { [Op.like]: 'Writer %' } } })).toBe(30);
+	});
+
+	test('plain writes interleaved with transactions all land', async () => {
+		const work = Array.from({ length: 20 }, (_, i) =>
+			i % 2
+				? User.create({ email: `plain${i}@case.test`, name: 'Plain', passwordHash: 'x' })
+				: world.db.transaction((transaction) =>
+						User.create(
+							{ email: `plain${i}@case.test`, name: 'Plain', passwordHash: 'x' },
+							{ transaction }
+						)
+					)
+		);
+		await Promise.all(work);
+		expect(await User.count({ where: { name: 'Plain' } })).toBe(20);
+	});
+
+	test('a transaction opened inside another is refused at once instead of deadlocking', async () => {
+		await expect(world.db.transaction(() => world.db.transaction(async () => 1))).rejects.toThrow(
+			/inside another one/
+		);
+		// The queue is free again afterwards.
+		expect(await world.db.transaction(async () => 'free')).toBe('free');
+	});
+
+	test('an unmanaged transaction holds the queue until it is committed or rolled back', async () => {
+		const first = await world.db.transaction();
+		let secondStarted = false;
+		const second = world.db.transaction(async () => {
+			secondStarted = true;
+		});
+		await new Promise((r) => setTimeout(r, 50));
+		expect(secondStarted).toBe(false);
+		await first.rollback();
+		await second;
+		expect(secondStarted).toBe(true);
 	});
 
 	test('e-mail addresses are stored lower-cased and must be unique', async () => {

@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
 import fs from 'node:fs';
 import path from 'node:path';
 import sqlite3 from 'sqlite3';
@@ -49,6 +50,74 @@ export function sqliteStorageOf(url: string): string | null {
 	return path.resolve(rest);
 }
 
+/**
+ * Run SQLite transactions one at a time within the process. SQLite admits one writer anyway,
+ * but node-sqlite3 waits for a lock on a libuv worker thread: with four transactions waiting
+ * (the default pool size) the holder's next statement finds no thread and everything stalls
+ * until the busy timeouts expire. Queueing in JavaScript keeps at most one transaction at the
+ * database, so nobody blocks a thread for long.
+ */
+function serializeTransactions(sequelize: Sequelize): void {
+	const original = sequelize.transaction.bind(sequelize) as (
+		...args: unknown[]
+	) => Promise<unknown>;
+	const inside = new AsyncLocalStorage<true>();
+	let tail: Promise<void> = Promise.resolve();
+
+	function acquire(): Promise<() => void> {
+		let release!: () => void;
+		const done = new Promise<void>((resolve) => (release = resolve));
+		const ready = tail.then(() => release);
+		tail = tail.then(() => done);
+		return ready;
+	}
+
+	const queued = async (...args: unknown[]): Promise<unknown> => {
+		const callback = args.find((arg) => typeof arg === 'function') as
+			((t: Transaction) => Promise<unknown>) | undefined;
+		const options = args.find((arg) => arg && typeof arg === 'object');
+		if (inside.getStore()) {
+			// The inner one would wait for the outer one, which waits for the inner one.
+			throw new Error(
+				'A transaction was started inside another one; pass the outer `transaction` instead.'
+			);
+		}
+		const release = await acquire();
+		if (callback) {
+			try {
+				return await inside.run(true, () => original(options ?? {}, callback));
+			} finally {
+				release();
+			}
+		}
+		// Unmanaged: the queue moves on when the caller commits or rolls back.
+		try {
+			const transaction = (await original(options)) as Transaction;
+			const commit = transaction.commit.bind(transaction);
+			const rollback = transaction.rollback.bind(transaction);
+			transaction.commit = async () => {
+				try {
+					await commit();
+				} finally {
+					release();
+				}
+			};
+			transaction.rollback = async () => {
+				try {
+					await rollback();
+				} finally {
+					release();
+				}
+			};
+			return transaction;
+		} catch (error) {
+			release();
+			throw error;
+		}
+	};
+	sequelize.transaction = queued as Sequelize['transaction'];
+}
+
 let current: Sequelize | null = null;
 
 /**
@@ -71,6 +140,7 @@ export function openDb(url: string): Sequelize {
 			transactionType: Transaction.TYPES.IMMEDIATE,
 			logging: false
 		});
+		serializeTransactions(sequelize);
 	} else if (/^postgres(ql)?:\/\//.test(url)) {
 		sequelize = new Sequelize(url, { dialect: 'postgres', logging: false });
 	} else {

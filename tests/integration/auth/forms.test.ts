@@ -1,0 +1,173 @@
+import { afterAll, beforeAll, beforeEach, describe, expect, test } from 'vitest';
+import { isRedirect } from '@sveltejs/kit';
+import { configureAuthLimits } from '../../../src/lib/server/auth/limits';
+import { safeNext, signInUrl } from '../../../src/lib/server/auth/redirects';
+import { SESSION_COOKIE_NAME } from '../../../src/lib/server/auth/session';
+import { User } from '../../../src/lib/server/db/models/index';
+import { actions as signInActions } from '../../../src/routes/(auth)/sign-in/+page.server';
+import { actions as signUpActions } from '../../../src/routes/(auth)/sign-up/+page.server';
+import { actions as forgotActions } from '../../../src/routes/(auth)/forgot-password/+page.server';
+import { actions as resetActions } from '../../../src/routes/(auth)/reset-password/+page.server';
+import { FakeCookies, fakeEvent } from './fake-event';
+import { openTestWorld, tokenFromOutbox, type TestWorld } from './setup';
+
+let world: TestWorld;
+beforeAll(async () => {
+	world = await openTestWorld();
+});
+afterAll(() => world.close());
+beforeEach(() => configureAuthLimits());
+
+type Action = (event: never) => unknown;
+
+/** Post a urlencoded form to an action; a thrown redirect comes back as `{ redirect }`. */
+async function post(
+	action: Action,
+	fields: Record<string, string>,
+	path = '/',
+	cookies = new FakeCookies()
+) {
+	const event = fakeEvent({
+		method: 'POST',
+		path,
+		body: new URLSearchParams(fields).toString(),
+		contentType: 'application/x-www-form-urlencoded',
+		cookies
+	});
+	try {
+		return { result: await action(event as never), cookies };
+	} catch (thrown) {
+		if (isRedirect(thrown)) return { redirect: thrown.location, status: thrown.status, cookies };
+		throw thrown;
+	}
+}
+
+const PASSWORD = 'walking-bass-7';
+
+describe('where sign-in may send you next', () => {
+	test.each([
+		['/teach/decks?x=1', '/teach/decks?x=1'],
+		['//evil.test/path', '/home'],
+		['/\\evil.test', '/home'],
+		['https://evil.test', '/home'],
+		['javascript:alert(1)', '/home'],
+		['/ok\nSet-Cookie: x', '/home'],
+		['', '/home'],
+		[null, '/home']
+	])('safeNext(%j) is %j', (next, expected) => {
+		expect(safeNext(next)).toBe(expected);
+	});
+
+	test('the sign-in link carries the page asked for', () => {
+		expect(signInUrl(new URL('http://x.test/teach/classes?tab=2'))).toBe(
+			'/sign-in?next=%2Fteach%2Fclasses%3Ftab%3D2'
+		);
+		expect(signInUrl(new URL('http://x.test/'))).toBe('/sign-in');
+	});
+});
+
+describe('the account forms', () => {
+	test('sign-up creates the account, signs in and shows the check-your-mail screen', async () => {
+		const done = await post(signUpActions.default, {
+			name: 'Form Player',
+			email: 'form1@example.test',
+			password: PASSWORD,
+			role: 'teacher'
+		});
+		expect(done).toMatchObject({ status: 303, redirect: '/verify-email?sent=1' });
+		expect(done.cookies.get(SESSION_COOKIE_NAME)).toMatch(/^[A-Za-z0-9_-]{43}$/);
+		expect((await User.findOne({ where: { email: 'form1@example.test' } }))?.role).toBe('teacher');
+	});
+
+	test('a refused sign-up answers 422 with the typed values but never the password', async () => {
+		const done = await post(signUpActions.default, {
+			name: 'Form Player',
+			email: 'form2@example.test',
+			password: 'short',
+			role: 'learner'
+		});
+		expect(done.result).toMatchObject({
+			status: 422,
+			data: {
+				values: { name: 'Form Player', email: 'form2@example.test', role: 'learner' },
+				field: 'password'
+			}
+		});
+		expect(JSON.stringify(done.result)).not.toContain('short');
+	});
+
+	test('sign-in follows a safe next and ignores an unsafe one', async () => {
+		await post(signUpActions.default, {
+			name: 'Nexter',
+			email: 'form3@example.test',
+			password: PASSWORD,
+			role: 'learner'
+		});
+		const safe = await post(signInActions.default, {
+			email: 'form3@example.test',
+			password: PASSWORD,
+			next: '/settings'
+		});
+		expect(safe).toMatchObject({ status: 303, redirect: '/settings' });
+		const unsafe = await post(signInActions.default, {
+			email: 'form3@example.test',
+			password: PASSWORD,
+			next: '//evil.test'
+		});
+		expect(unsafe).toMatchObject({ status: 303, redirect: '/home' });
+	});
+
+	test('a wrong password answers 400 keeping the address, and the sixth try 429', async () => {
+		const statuses = [];
+		for (let i = 0; i < 6; i++) {
+			const done = await post(signInActions.default, {
+				email: 'form3@example.test',
+				password: 'not-the-one-1'
+			});
+			statuses.push((done.result as { status: number }).status);
+			if (i === 0) {
+				expect(done.result).toMatchObject({ data: { values: { email: 'form3@example.test' } } });
+			}
+		}
+		expect(statuses).toEqual([400, 400, 400, 400, 400, 429]);
+	});
+
+	test('a body that is not a form answers 400 and changes nothing', async () => {
+		const before = await User.count();
+		const event = fakeEvent({
+			method: 'POST',
+			body: '{"name": "x"}',
+			contentType: 'application/json'
+		});
+		const result = await signUpActions.default(event as never);
+		expect(result).toMatchObject({ status: 400 });
+		expect(await User.count()).toBe(before);
+	});
+
+	test('forgot-password answers alike for known and unknown addresses; the reset form sets the password', async () => {
+		const known = await post(forgotActions.default, { email: 'form3@example.test' });
+		const unknown = await post(forgotActions.default, { email: 'ghost@example.test' });
+		expect(known).toMatchObject({ status: 303, redirect: '/forgot-password?sent' });
+		expect(unknown).toMatchObject({ status: 303, redirect: '/forgot-password?sent' });
+
+		const token = await tokenFromOutbox('form3@example.test', '/reset-password');
+		const mismatch = await post(resetActions.default, {
+			token,
+			password: 'comping-chords-9',
+			confirm: 'comping-chords-8'
+		});
+		expect(mismatch.result).toMatchObject({ status: 422, data: { field: 'confirm' } });
+		const done = await post(resetActions.default, {
+			token,
+			password: 'comping-chords-9',
+			confirm: 'comping-chords-9'
+		});
+		expect(done).toMatchObject({ status: 303, redirect: '/sign-in?reset' });
+		const reused = await post(resetActions.default, {
+			token,
+			password: 'comping-chords-9',
+			confirm: 'comping-chords-9'
+		});
+		expect(reused.result).toMatchObject({ status: 400, data: { field: 'token' } });
+	});
+});

@@ -171,3 +171,36 @@ describe('the account forms', () => {
 		expect(reused.result).toMatchObject({ status: 400, data: { field: 'token' } });
 	});
 });
+
+describe('asking for a new verification link', () => {
+	test('works three times an hour per account, then answers 429', async () => {
+		const { actions } = await import('../../../src/routes/(auth)/verify-email/+page.server');
+		const user = await User.findOne({ where: { email: 'form1@example.test' } });
+		const locals = {
+			user: {
+				id: user!.id,
+				email: user!.email,
+				name: user!.name,
+				role: user!.role,
+				emailVerified: false,
+				settings: user!.settings
+			},
+			session: null
+		};
+		const outcomes = [];
+		for (let i = 0; i < 4; i++) {
+			const event = fakeEvent({ method: 'POST', path: '/verify-email?/resend', locals });
+			try {
+				outcomes.push((await actions.resend(event as never)) as { status: number });
+			} catch (thrown) {
+				outcomes.push(isRedirect(thrown) ? thrown.location : thrown);
+			}
+		}
+		expect(outcomes.slice(0, 3)).toEqual([
+			'/verify-email?sent=1',
+			'/verify-email?sent=1',
+			'/verify-email?sent=1'
+		]);
+		expect(outcomes[3]).toMatchObject({ status: 429 });
+	});
+});

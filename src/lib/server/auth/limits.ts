@@ -9,6 +9,7 @@ import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from './
  * | sign-in         | 20 failures / 15 min      | 5 failures / 15 min      |
  * | sign-up         | 30 attempts / hour        | 5 attempts / hour        |
  * | password reset  | 10 requests / hour        | 3 requests / hour        |
+ * | new verify link | –                         | 3 per account / hour     |
  *
  * Sign-in counts failures only, and a success clears that e-mail's count. `AUTH_LIMIT_SCALE`
  * (default 1) multiplies every maximum, for load tests or a school behind one NAT address.
@@ -20,7 +21,8 @@ export const AUTH_LIMITS = {
 	signUpAddress: { max: 30, windowMs: 60 * MINUTE },
 	signUpEmail: { max: 5, windowMs: 60 * MINUTE },
 	resetAddress: { max: 10, windowMs: 60 * MINUTE },
-	resetEmail: { max: 3, windowMs: 60 * MINUTE }
+	resetEmail: { max: 3, windowMs: 60 * MINUTE },
+	resendAccount: { max: 3, windowMs: 60 * MINUTE }
 } as const satisfies Record<string, RateLimiterOptions>;
 
 export type AuthLimitName = keyof typeof AUTH_LIMITS;
@@ -100,4 +102,9 @@ export function consumeSignUp(address: string, email: unknown, now = Date.now())
 export function consumeReset(address: string, email: unknown, now = Date.now()): LimitVerdict {
 	const l = get();
 	return worst(l.resetAddress.consume(address, now), l.resetEmail.consume(emailKey(email), now));
+}
+
+/** Count a request for a fresh verification link by a signed-in account. */
+export function consumeResend(userId: string, now = Date.now()): LimitVerdict {
+	return worst(get().resendAccount.consume(userId, now));
 }

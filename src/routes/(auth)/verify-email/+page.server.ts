@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { resendVerification, verifyEmail } from '$lib/server/auth/accounts';
+import { consumeResend } from '$lib/server/auth/limits';
 import { signInUrl } from '$lib/server/auth/redirects';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -26,6 +27,13 @@ export const actions: Actions = {
 	/** Send the link again (signed in, not yet confirmed). */
 	resend: async ({ locals, url }) => {
 		if (!locals.user) redirect(303, signInUrl(url));
+		const limit = consumeResend(locals.user.id);
+		if (!limit.allowed) {
+			return fail(429, {
+				values: {},
+				message: `Three links an hour is the most we send. Try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`
+			});
+		}
 		const result = await resendVerification(locals.user.id);
 		if (!result.ok) {
 			if (result.reason === 'already-verified') redirect(303, '/verify-email');

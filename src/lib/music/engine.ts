@@ -3,7 +3,7 @@
  * grid of variants from one parse. Parsing happens once per lick; each variant is a walk over the
  * parsed note heads with small integer arithmetic and one pass of the emitter.
  */
-import { emitAbc, transposeChordSymbol } from './abc/emit';
+import { chordTemplate, emitAbc, transposeChordSymbol } from './abc/emit';
 import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
@@ -32,8 +32,8 @@ import {
 	type SpelledPitch,
 	type Steps
 } from './pitch';
-import { simplifyNoteName, simplifySpelling } from './spelling';
-import { planKeys, shiftPlan, transposeNoteName, type KeyPlan } from './transpose';
+import { simplifySpelling } from './spelling';
+import { planKeys, shiftPlan, type KeyPlan } from './transpose';
 import { QUALITY_IDS, type ChordContext, type KeyName, type MusicWarning, type PitchName, type QualityId } from './types';
 
 export type { AbcError } from './abc/tokenize';
@@ -90,6 +90,21 @@ export interface PreparedLick {
 	quality: QualityId | null;
 	/** Re-mapped versions by quality, in the lick's own key, computed on first use. */
 	layers: Map<QualityId | null, QualityLayer>;
+	/** Concert key plans by target (`to|tritone|octaves`), computed on first use. */
+	plans: Map<string, KeyPlan>;
+	/** The tune's key signatures, in order. */
+	keys: KeySignature[];
+	/** For each sounding note, the index of the chord symbol in force, or -1. */
+	chordOfNote: number[];
+}
+
+const NONE: readonly MusicWarning[] = [];
+
+/** One warnings array for a variant; most variants have none, so nothing is copied then. */
+function collectWarnings(...lists: (readonly MusicWarning[])[]): MusicWarning[] {
+	const out: MusicWarning[] = [];
+	for (const list of lists) for (const w of list) out.push(w);
+	return out;
 }
 
 /** The lick over one chord quality, still in its own key. */
@@ -113,10 +128,14 @@ export class VariantRequestError extends Error {
 	}
 }
 
+/**
+ * The chord in force from a chord symbol's text. A symbol naming several chords ("C7 F7", two
+ * in one bar) is in force as its first chord; all of its roots are transposed.
+ */
 const readChord = (symbol: string): ChordContext | null => {
-	const parsed = parseChordSymbol(symbol);
+	const parsed = parseChordSymbol(symbol) ?? parseChordSymbol(symbol.trim().split(/\s+/)[0]);
 	return (
-		parsed && { symbol: parsed.symbol, root: parsed.root, quality: parsed.quality, bass: parsed.bass }
+		parsed && { symbol: symbol.trim(), root: parsed.root, quality: parsed.quality, bass: parsed.bass }
 	);
 };
 
@@ -137,7 +156,20 @@ export function prepareLick(abc: string): PrepareResult {
 		contexts: tune.chordSymbols.map((c) => c.context),
 		warnings: []
 	};
-	return { ok: true, lick: { tune, quality, layers: new Map([[quality, own]]) } };
+	const chordOfNote = tune.notes.map((n) =>
+		n.chord ? tune.chordSymbols.findIndex((c) => c.context === n.chord) : -1
+	);
+	return {
+		ok: true,
+		lick: {
+			tune,
+			quality,
+			layers: new Map([[quality, own]]),
+			plans: new Map(),
+			keys: tune.keys.map((k) => k.key),
+			chordOfNote
+		}
+	};
 }
 
 /**
@@ -201,19 +233,20 @@ function layerFor(lick: PreparedLick, quality: QualityId | null): QualityLayer {
 	return layer;
 }
 
-const spellName = (n: SpelledNote): string => formatNoteName(n);
-
 /** Chord texts and contexts of a layer moved by an interval, spelled for the keys in force. */
 function moveChords(
 	tune: ParsedAbc,
 	layer: QualityLayer,
 	by: Steps,
 	keys: readonly KeySignature[]
-): { texts: string[]; contexts: (ChordContext | null)[] } {
-	const texts: string[] = new Array(layer.chordTexts.length);
-	const contexts: (ChordContext | null)[] = new Array(layer.chordTexts.length);
+): { texts: string[]; contexts: (ChordContext | null)[]; rootChromas: number[] } {
+	const n = layer.chordTexts.length;
+	const texts: string[] = new Array(n);
+	const contexts: (ChordContext | null)[] = new Array(n);
+	const rootChromas: number[] = new Array(n).fill(0);
 	let keyIndex = 0;
-	for (let i = 0; i < layer.chordTexts.length; i++) {
+	const moved: SpelledNote[] = [];
+	for (let i = 0; i < n; i++) {
 		const token = tune.chordSymbols[i].token;
 		while (keyIndex + 1 < tune.keys.length && tune.keys[keyIndex + 1].token < token) keyIndex++;
 		const c = layer.contexts[i];
@@ -222,14 +255,19 @@ function moveChords(
 			contexts[i] = null;
 			continue;
 		}
-		const accidentals = keys[keyIndex].accidentals;
-		const text = transposeChordSymbol(layer.chordTexts[i], by, accidentals);
-		const move = (name: string) =>
-			spellName(simplifyNoteName(transposeNoteName(parseNoteName(name) as SpelledNote, by), accidentals));
+		moved.length = 0;
+		const text = transposeChordSymbol(layer.chordTexts[i], by, keys[keyIndex].accidentals, moved);
+		const template = chordTemplate(layer.chordTexts[i]);
 		texts[i] = text;
-		contexts[i] = { symbol: text, root: move(c.root), quality: c.quality, bass: c.bass && move(c.bass) };
+		rootChromas[i] = moved.length ? chromaOf(moved[0]) : chromaOf(readNote(c.root));
+		contexts[i] = {
+			symbol: text,
+			root: moved.length ? formatNoteName(moved[0]) : c.root,
+			quality: c.quality,
+			bass: c.bass && template.bass >= 0 ? formatNoteName(moved[template.bass]) : c.bass
+		};
 	}
-	return { texts, contexts };
+	return { texts, contexts, rootChromas };
 }
 
 /** Pitches of a layer moved by an interval and spelled for the key in force. */
@@ -240,10 +278,32 @@ function movePitches(
 	keys: readonly KeySignature[]
 ): SpelledPitch[] {
 	const out: SpelledPitch[] = new Array(pitches.length);
+	const heads = tune.heads;
 	for (let i = 0; i < pitches.length; i++) {
-		out[i] = simplifySpelling(transposePitch(pitches[i], by), keys[tune.heads[i].key].accidentals);
+		out[i] = simplifySpelling(transposePitch(pitches[i], by), keys[heads[i].key].accidentals);
 	}
 	return out;
+}
+
+/** The concert key plan for a target, cached on the lick (a grid asks for each key 8 times). */
+function concertPlan(
+	lick: PreparedLick,
+	target: SpelledNote | null,
+	to: string | undefined,
+	tritone: TritoneSpelling,
+	octaves: number
+): KeyPlan {
+	const id = `${to ?? ''}|${tritone}|${octaves}`;
+	let plan = lick.plans.get(id);
+	if (!plan) {
+		plan = planKeys(
+			lick.keys,
+			target,
+			{ tritone, octaves }
+		);
+		lick.plans.set(id, plan);
+	}
+	return plan;
 }
 
 /**
@@ -259,8 +319,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 	}
 	const target = options.to === undefined ? null : readKeyName(options.to);
 	const layer = layerFor(lick, options.quality ?? null);
-	const originalKeys = tune.keys.map((k) => k.key);
-	const concert: KeyPlan = planKeys(originalKeys, target, { tritone, octaves: options.octaves });
+	const concert = concertPlan(lick, target, options.to, tritone, options.octaves ?? 0);
 	const instrumentId = options.instrument === undefined ? null : options.instrument;
 	if (instrumentId !== null && !isInstrumentId(instrumentId)) {
 		throw new VariantRequestError(
@@ -273,7 +332,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 	const concertChords = moveChords(tune, layer, concert.interval, concert.keys);
 	const { plan: written, fitWarnings } = writtenPlan(
 		instrumentId,
-		originalKeys,
+		lick.keys,
 		concert,
 		tune,
 		concertPitches,
@@ -290,28 +349,23 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		chordSymbols: writtenChords.texts
 	});
 	const notes: VariantNote[] = new Array(tune.notes.length);
-	let chordIndex = -1;
-	for (let i = 0; i < tune.heads.length; i++) {
-		const h = tune.heads[i];
+	const { heads } = tune;
+	for (let i = 0; i < heads.length; i++) {
+		const h = heads[i];
 		if (h.grace || h.continuation) continue;
 		const src = tune.notes[h.sounding];
 		const p = concertPitches[i];
 		const midi = midiOf(p);
 		// The chord in force is the same symbol as in the source, now moved.
-		let chord: ChordContext | null = null;
-		if (src.chord) {
-			if (chordIndex < 0 || tune.chordSymbols[chordIndex].context !== src.chord) {
-				chordIndex = tune.chordSymbols.findIndex((c) => c.context === src.chord);
-			}
-			chord = concertChords.contexts[chordIndex];
-		}
+		const ci = lick.chordOfNote[h.sounding];
+		const chord = ci < 0 ? null : concertChords.contexts[ci];
 		notes[h.sounding] = {
 			index: src.index,
 			pitch: formatPitch(p),
 			midi,
 			start: src.start,
 			duration: src.duration,
-			degree: chord ? degreeAt(midi - chromaOf(readNote(chord.root)), chord.quality).label : null,
+			degree: chord ? degreeAt(midi - concertChords.rootChromas[ci], chord.quality).label : null,
 			chord
 		};
 	}
@@ -325,14 +379,14 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		writtenKey: formatKeyField(written.keys[0]),
 		quality: layer.quality,
 		instrument,
-		warnings: [
-			...tune.warnings,
-			...layer.warnings,
-			...concert.warnings,
-			...(written === concert ? [] : written.warnings),
-			...fitWarnings,
-			...(analysis?.warning ? [analysis.warning] : [])
-		],
+		warnings: collectWarnings(
+			tune.warnings,
+			layer.warnings,
+			concert.warnings,
+			written === concert ? NONE : written.warnings,
+			fitWarnings,
+			analysis?.warning ? [analysis.warning] : NONE
+		),
 		notes,
 		...(devices ? { devices } : {})
 	};

@@ -37,8 +37,7 @@ export interface KeySignature {
 }
 
 export type KeyParseResult =
-	| { ok: true; key: KeySignature }
-	| { ok: false; message: string; offset: number };
+	{ ok: true; key: KeySignature } | { ok: false; message: string; offset: number };
 
 /**
  * Position of a spelled tonic on the circle of fifths (C 0, G 1, F -1, F# 6, Cb -7).
@@ -110,7 +109,10 @@ export function parseKeyField(value: string): KeyParseResult {
 				offset: lead
 			};
 		}
-		tonic = { letter: LETTERS.indexOf(head[1]), alt: head[2] === '#' ? 1 : head[2] === 'b' ? -1 : 0 };
+		tonic = {
+			letter: LETTERS.indexOf(head[1]),
+			alt: head[2] === '#' ? 1 : head[2] === 'b' ? -1 : 0
+		};
 		pos = head[0].length;
 		const modeMatch = /^\s*([A-Za-z]+)/.exec(text.slice(pos));
 		if (modeMatch && !/^clef$/i.test(modeMatch[1]) && !isClefWord(modeMatch[1])) {
@@ -184,10 +186,14 @@ const FULL_MODE_WORDS = [
 ];
 const CLEF_WORDS = ['treble', 'bass', 'alto', 'tenor', 'perc', 'none', 'baritone', 'soprano'];
 function isClefParameter(word: string): boolean {
-	return /^[A-Za-z-]+=\S*$/.test(word) || /^[+-]8$/.test(word) || isClefWord(word.replace(/[+-]8$/, ''));
+	return (
+		/^[A-Za-z-]+=\S*$/.test(word) || /^[+-]8$/.test(word) || isClefWord(word.replace(/[+-]8$/, ''))
+	);
 }
 function isClefWord(word: string): boolean {
-	return CLEF_WORDS.includes(word.toLowerCase()) || /^(middle|transpose|octave|stafflines)$/i.test(word);
+	return (
+		CLEF_WORDS.includes(word.toLowerCase()) || /^(middle|transpose|octave|stafflines)$/i.test(word)
+	);
 }
 
 /**
@@ -195,7 +201,15 @@ function isClefWord(word: string): boolean {
  * @example modeSuffix('dorian') // 'dor'
  */
 export function modeSuffix(mode: Mode): string {
-	return { major: '', minor: 'm', mixolydian: 'mix', dorian: 'dor', phrygian: 'phr', lydian: 'lyd', locrian: 'loc' }[mode];
+	return {
+		major: '',
+		minor: 'm',
+		mixolydian: 'mix',
+		dorian: 'dor',
+		phrygian: 'phr',
+		lydian: 'lyd',
+		locrian: 'loc'
+	}[mode];
 }
 
 /**
@@ -203,6 +217,18 @@ export function modeSuffix(mode: Mode): string {
  * @example formatKeyField(keyOf('Eb', 'minor')) // 'Ebm'
  */
 export function formatKeyField(key: KeySignature): string {
+	let text = keyTexts.get(key);
+	if (text === undefined) {
+		text = writeKeyField(key);
+		keyTexts.set(key, text);
+	}
+	return text;
+}
+
+/** K: values already written, per key object (key objects are never changed once made). */
+const keyTexts = new WeakMap<KeySignature, string>();
+
+function writeKeyField(key: KeySignature): string {
 	const parts = [key.none ? 'none' : formatNoteName(key.tonic) + modeSuffix(key.mode)];
 	for (const e of key.explicit) {
 		const acc = e.alt === 0 ? '=' : e.alt > 0 ? '^'.repeat(e.alt) : '_'.repeat(-e.alt);
@@ -237,6 +263,8 @@ export function jazzTonic(pc: number, mode: Mode, tritone: TritoneSpelling = 'Gb
 	}
 	if (mode === 'minor') return parseNoteName(MINOR_KEY_SPELLINGS[p]) as SpelledNote;
 	const candidates = tonicSpellings(p).map((t) => ({ t, f: fifthsOf(t) + MODE_FIFTHS[mode] }));
-	candidates.sort((a, b) => Math.abs(a.f) - Math.abs(b.f) || (tritone === 'F#' ? b.f - a.f : a.f - b.f));
+	candidates.sort(
+		(a, b) => Math.abs(a.f) - Math.abs(b.f) || (tritone === 'F#' ? b.f - a.f : a.f - b.f)
+	);
 	return candidates[0].t;
 }

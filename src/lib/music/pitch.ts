@@ -69,39 +69,70 @@ export function accidentalName(alt: number): string {
  * @example formatNoteName({ letter: 3, alt: 1 }) // 'F#'
  */
 export function formatNoteName(n: SpelledNote): NoteName {
+	if (n.alt >= -2 && n.alt <= 2) return NOTE_NAMES[n.letter * 5 + n.alt + 2];
 	return LETTERS[n.letter] + accidentalName(n.alt);
 }
+
+/** Names of every letter with -2..+2 alterations, built once (index letter * 5 + alt + 2). */
+const NOTE_NAMES: readonly string[] = Array.from(
+	{ length: 35 },
+	(_, i) => LETTERS[Math.floor(i / 5)] + accidentalName((i % 5) - 2)
+);
 
 /**
  * Scientific pitch name.
  * @example formatPitch({ letter: 6, alt: -1, octave: 3 }) // 'Bb3'
  */
 export function formatPitch(p: SpelledPitch): PitchName {
-	return formatNoteName(p) + p.octave;
+	if (p.alt >= -2 && p.alt <= 2 && p.octave >= -1 && p.octave <= 9) {
+		return PITCH_NAMES[(p.letter * 5 + p.alt + 2) * 11 + p.octave + 1];
+	}
+	return formatNoteName(p) + String(p.octave);
 }
 
-const NOTE_NAME = /^([A-Ga-g])(#{1,2}|b{1,2}|x|♯|♭|𝄪|𝄫)?$/u;
-const ALT_OF: Record<string, number> = {
-	'': 0,
-	'#': 1,
-	'##': 2,
-	x: 2,
-	'♯': 1,
-	'𝄪': 2,
-	b: -1,
-	bb: -2,
-	'♭': -1,
-	'𝄫': -2
-};
+/** Pitch names for octaves -1..9 (index (letter * 5 + alt + 2) * 11 + octave + 1), built once. */
+const PITCH_NAMES: readonly string[] = Array.from(
+	{ length: 35 * 11 },
+	(_, i) => NOTE_NAMES[Math.floor(i / 11)] + String((i % 11) - 1)
+);
+
+const LETTER_INDEX: Record<string, number> = { C: 0, D: 1, E: 2, F: 3, G: 4, A: 5, B: 6 };
+
+/** Alteration of an accidental suffix, or NaN when it is not one (`#`, `##`, `x`, `b`, `bb`, ♯ ♭ 𝄪 𝄫). */
+function altOf(text: string): number {
+	switch (text) {
+		case '':
+			return 0;
+		case '#':
+		case '♯':
+			return 1;
+		case '##':
+		case 'x':
+		case '𝄪':
+			return 2;
+		case 'b':
+		case '♭':
+			return -1;
+		case 'bb':
+		case '𝄫':
+			return -2;
+		default:
+			return NaN;
+	}
+}
 
 /**
- * Read a pitch-class name (`F#`, `Bb`, `E♭`, `Fx`); null when it is not one.
+ * Read a pitch-class name (`F#`, `Bb`, `E♭`, `Fx`); null when it is not one. Hand-written rather
+ * than a regular expression: re-mapping reads every note name it gets back.
  * @example parseNoteName('Eb') // { letter: 2, alt: -1 }
  */
 export function parseNoteName(name: string): SpelledNote | null {
-	const m = NOTE_NAME.exec(name.trim());
-	if (!m) return null;
-	return { letter: LETTERS.indexOf(m[1].toUpperCase()), alt: ALT_OF[m[2] ?? ''] };
+	const text = name.length > 0 && (name[0] === ' ' || name[name.length - 1] === ' ') ? name.trim() : name;
+	if (text.length === 0) return null;
+	const letter = LETTER_INDEX[text[0].toUpperCase()];
+	if (letter === undefined) return null;
+	const alt = altOf(text.slice(1));
+	return Number.isNaN(alt) ? null : { letter, alt };
 }
 
 /**
@@ -109,10 +140,17 @@ export function parseNoteName(name: string): SpelledNote | null {
  * @example parsePitchName('C#5') // { letter: 0, alt: 1, octave: 5 }
  */
 export function parsePitchName(name: string): SpelledPitch | null {
-	const m = /^(.+?)(-?\d+)$/.exec(name.trim());
-	if (!m) return null;
-	const n = parseNoteName(m[1]);
-	return n && { ...n, octave: Number(m[2]) };
+	const text = name.trim();
+	let end = text.length;
+	while (end > 0 && text.charCodeAt(end - 1) >= 48 && text.charCodeAt(end - 1) <= 57) end--;
+	if (end === text.length) return null;
+	const digitsFrom = end;
+	if (end > 0 && text[end - 1] === '-') end--;
+	if (end === 0) return null;
+	const n = parseNoteName(text.slice(0, end));
+	if (!n) return null;
+	const octave = Number(text.slice(digitsFrom));
+	return { letter: n.letter, alt: n.alt, octave: end < digitsFrom ? -octave : octave };
 }
 
 /**
@@ -131,10 +169,21 @@ export function abcAccidental(alt: number): string {
  * @example abcLetter({ letter: 6, alt: -1, octave: 2 }) // 'B,,'
  */
 export function abcLetter(p: SpelledPitch): string {
-	const name = LETTERS[p.letter];
-	if (p.octave >= 5) return name.toLowerCase() + "'".repeat(p.octave - 5);
-	return name + ','.repeat(4 - p.octave);
+	if (p.octave >= 0 && p.octave < 10) return ABC_LETTERS[p.letter * 10 + p.octave];
+	return abcLetterOf(p.letter, p.octave);
 }
+
+function abcLetterOf(letter: number, octave: number): string {
+	const name = LETTERS[letter];
+	if (octave >= 5) return name.toLowerCase() + "'".repeat(octave - 5);
+	return name + ','.repeat(4 - octave);
+}
+
+/** abc letters with octave marks for octaves 0..9, built once (index letter * 10 + octave). */
+const ABC_LETTERS: readonly string[] = Array.from({ length: 70 }, (_, i) =>
+	abcLetterOf(Math.floor(i / 10), i % 10)
+);
+
 
 /**
  * Transpose a spelled pitch by letter steps and semitones; the letter moves by `steps` and the
@@ -157,7 +206,8 @@ export function stepsBetween(from: SpelledNote, to: SpelledNote): Steps {
 	const steps = mod(to.letter - from.letter, 7);
 	let semitones = LETTER_SEMITONES[to.letter] + to.alt - (LETTER_SEMITONES[from.letter] + from.alt);
 	// Bring the semitone count next to the letter distance: C to B# is a seventh of 12, not 0.
-	const natural = LETTER_SEMITONES[mod(from.letter + steps, 7)] + (from.letter + steps >= 7 ? 12 : 0);
+	const natural =
+		LETTER_SEMITONES[mod(from.letter + steps, 7)] + (from.letter + steps >= 7 ? 12 : 0);
 	const base = natural - LETTER_SEMITONES[from.letter];
 	while (semitones - base > 6) semitones -= 12;
 	while (semitones - base < -6) semitones += 12;

@@ -6,7 +6,13 @@
  */
 import { fifthsOf, jazzTonic, keyOf, type KeySignature, type TritoneSpelling } from './keys';
 import { MODE_FIFTHS } from './key-data';
-import { chromaOf, formatNoteName, LETTER_SEMITONES, type SpelledNote, type SpelledPitch } from './pitch';
+import {
+	chromaOf,
+	formatNoteName,
+	LETTER_SEMITONES,
+	type SpelledNote,
+	type SpelledPitch
+} from './pitch';
 import { modeSuffix } from './keys';
 import type { MusicWarning } from './types';
 
@@ -37,46 +43,51 @@ export function respellKey(
 }
 
 /**
- * Cost of writing `n` in a key: explicit accidentals count 1, double accidentals 2 more,
- * E#, B#, Cb and Fb outside the signature 1 more (they read as a different letter to most eyes).
+ * Cost of writing a letter with an alteration in a key: an explicit accidental counts 1, E#, B#,
+ * Cb and Fb outside the signature 1 more (they read as a different letter to most eyes), a
+ * double accidental 2 more.
  */
-function spellingCost(n: SpelledNote, accidentals: readonly number[]): number {
+function spellingCost(letter: number, alt: number, accidentals: readonly number[]): number {
 	let cost = 0;
-	if (n.alt !== accidentals[n.letter]) {
+	if (alt !== accidentals[letter]) {
 		cost += 1;
-		if ((n.alt === 1 && (n.letter === 2 || n.letter === 6)) || (n.alt === -1 && (n.letter === 0 || n.letter === 3)))
+		if ((alt === 1 && (letter === 2 || letter === 6)) || (alt === -1 && (letter === 0 || letter === 3)))
 			cost += 1;
 	}
-	if (Math.abs(n.alt) >= 2) cost += 2;
+	if (alt >= 2 || alt <= -2) cost += 2;
 	return cost;
 }
 
 /**
  * Respell a transposed pitch when a neighbouring letter is cheaper to write in the key: no
  * double sharps or flats, no explicit E#/B#/Cb/Fb where F, C, B or E will do. A spelling that is
- * already as cheap as any other is kept, so letter relations survive wherever they can.
+ * already as cheap as any other is kept (the same object), so letter relations survive wherever
+ * they can. Runs once per note per variant: no allocation unless the spelling changes.
  * @example simplifySpelling({ letter: 3, alt: 2, octave: 4 }, keyOf('B').accidentals) // G4
  */
 export function simplifySpelling(p: SpelledPitch, accidentals: readonly number[]): SpelledPitch {
-	const own = spellingCost(p, accidentals);
+	const own = spellingCost(p.letter, p.alt, accidentals);
 	if (own === 0) return p;
-	let best = p;
 	let bestCost = own;
+	let bestLetter = -1;
+	let bestAlt = 0;
+	let bestOctave = 0;
 	const midi = 12 * (p.octave + 1) + LETTER_SEMITONES[p.letter] + p.alt;
-	for (const d of [-1, 1]) {
+	for (let d = -1; d <= 1; d += 2) {
 		const abs = p.octave * 7 + p.letter + d;
 		const letter = ((abs % 7) + 7) % 7;
 		const octave = Math.floor(abs / 7);
 		const alt = midi - (12 * (octave + 1) + LETTER_SEMITONES[letter]);
-		if (Math.abs(alt) > 2) continue;
-		const candidate = { letter, alt, octave };
-		const cost = spellingCost(candidate, accidentals);
+		if (alt > 2 || alt < -2) continue;
+		const cost = spellingCost(letter, alt, accidentals);
 		if (cost < bestCost) {
-			best = candidate;
 			bestCost = cost;
+			bestLetter = letter;
+			bestAlt = alt;
+			bestOctave = octave;
 		}
 	}
-	return best;
+	return bestLetter < 0 ? p : { letter: bestLetter, alt: bestAlt, octave: bestOctave };
 }
 
 /**
@@ -84,6 +95,6 @@ export function simplifySpelling(p: SpelledPitch, accidentals: readonly number[]
  * @example simplifyNoteName({ letter: 2, alt: 1 }, keyOf('C').accidentals) // F
  */
 export function simplifyNoteName(n: SpelledNote, accidentals: readonly number[]): SpelledNote {
-	const { letter, alt } = simplifySpelling({ ...n, octave: 4 }, accidentals);
-	return { letter, alt };
+	const p = simplifySpelling({ letter: n.letter, alt: n.alt, octave: 4 }, accidentals);
+	return p.letter === n.letter ? n : { letter: p.letter, alt: p.alt };
 }

@@ -5,6 +5,7 @@
  */
 import { jazzTonic, keyOf, type KeySignature, type TritoneSpelling } from './keys';
 import {
+	LETTER_SEMITONES,
 	stepsBetween,
 	transposePitch,
 	type SpelledNote,
@@ -41,8 +42,11 @@ export function intervalToKey(from: SpelledNote, to: SpelledNote): Steps {
  * @example transposeNoteName({ letter: 6, alt: -1 }, { steps: 1, semitones: 2 }) // { letter: 0, alt: 0 }
  */
 export function transposeNoteName(n: SpelledNote, by: Steps): SpelledNote {
-	const p = transposePitch({ ...n, octave: 4 }, by);
-	return { letter: p.letter, alt: p.alt };
+	const abs = n.letter + by.steps;
+	const letter = ((abs % 7) + 7) % 7;
+	const octaves = Math.floor(abs / 7);
+	const natural = LETTER_SEMITONES[letter] + 12 * octaves - LETTER_SEMITONES[n.letter];
+	return { letter, alt: n.alt + by.semitones - natural };
 }
 
 /**
@@ -85,7 +89,11 @@ export function targetKey(
  * A twelve-key target by pitch class with the usual jazz spelling for the mode.
  * @example jazzKey(6, 'major', 'F#').tonic // F#
  */
-export function jazzKey(pc: number, mode: KeySignature['mode'], tritone: TritoneSpelling = 'Gb'): KeySignature {
+export function jazzKey(
+	pc: number,
+	mode: KeySignature['mode'],
+	tritone: TritoneSpelling = 'Gb'
+): KeySignature {
 	return keyOf(jazzTonic(pc, mode, tritone), mode);
 }
 

@@ -7,7 +7,7 @@
  * otherwise sound a different pitch, which is also the fewest accidentals both readings accept.
  */
 import { formatKeyField, type KeySignature } from '../keys';
-import { abcLetter, type SpelledNote, type SpelledPitch, type Steps } from '../pitch';
+import { abcLetter, formatNoteName, type SpelledNote, type SpelledPitch, type Steps } from '../pitch';
 import { simplifyNoteName } from '../spelling';
 import { transposeNoteName } from '../transpose';
 import type { ParsedAbc } from './parse';
@@ -22,33 +22,96 @@ export interface EmitPlan {
 }
 
 const UNSET = 99;
-const ACCIDENTAL_TEXT: Record<number, string> = { [-2]: '__', [-1]: '_', 0: '=', 1: '^', 2: '^^' };
+/** abc accidentals for alterations -2..+2 (index alt + 2). */
+const ACCIDENTAL_TEXT: readonly string[] = ['__', '_', '=', '^', '^^'];
+
+/** What the emitter does at each step: copy text, write a note, a chord symbol or a key, or start a bar. */
+const enum Step {
+	Text,
+	Note,
+	Chord,
+	Key,
+	Bar
+}
+
+/**
+ * A tune cut once into the parts a variant changes and the text between them (merged), so that
+ * each variant is a short walk instead of one step per token.
+ */
+interface Skeleton {
+	steps: Step[];
+	/** Per step: the text to copy (Text), or the index of the head, chord symbol or key. */
+	args: (string | number)[];
+}
+
+const skeletons = new WeakMap<ParsedAbc, Skeleton>();
+
+function skeletonOf(tune: ParsedAbc): Skeleton {
+	let sk = skeletons.get(tune);
+	if (sk) return sk;
+	const steps: Step[] = [];
+	const args: (string | number)[] = [];
+	let text = '';
+	const flush = () => {
+		if (text) {
+			steps.push(Step.Text);
+			args.push(text);
+			text = '';
+		}
+	};
+	let head = 0;
+	let chord = 0;
+	let key = 0;
+	for (const t of tune.tokens) {
+		if (t.kind === 'note') {
+			flush();
+			steps.push(Step.Note);
+			args.push(head++);
+		} else if (t.kind === 'chord-symbol') {
+			flush();
+			steps.push(Step.Chord);
+			args.push(chord++);
+		} else if ((t.kind === 'field' || t.kind === 'inline-field') && t.name === 'K') {
+			flush();
+			steps.push(Step.Key);
+			args.push(key++);
+		} else {
+			text += t.text;
+			if (t.kind === 'bar' || t.kind === 'blank' || (t.kind === 'field' && t.name === 'X')) {
+				flush();
+				steps.push(Step.Bar);
+				args.push(0);
+			}
+		}
+	}
+	flush();
+	sk = { steps, args };
+	skeletons.set(tune, sk);
+	return sk;
+}
 
 /**
  * Write abc text for a tune under a plan.
  * @example emitAbc(tune, plan) // 'X:1\nK:D\n^c d|'
  */
 export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
-	const { tokens, propagation } = tune;
+	const { tokens, propagation, heads } = tune;
+	const { steps, args } = skeletonOf(tune);
 	const byLetter = new Int8Array(7).fill(UNSET);
-	// Letter and octave: octaves -1..12 are plenty for any instrument.
+	// Letter and octave: octaves -1..14 are plenty for any instrument.
 	const byOctave = new Int8Array(7 * 16).fill(UNSET);
 	const touched: number[] = [];
-	const resetBar = () => {
-		byLetter.fill(UNSET);
-		for (const i of touched) byOctave[i] = UNSET;
-		touched.length = 0;
-	};
 	let out = '';
-	let headIndex = 0;
-	let chordIndex = 0;
-	let keyIndex = 0;
-	for (let ti = 0; ti < tokens.length; ti++) {
-		const t = tokens[ti];
-		switch (t.kind) {
-			case 'note': {
-				const p = plan.pitches[headIndex];
-				const head = tune.heads[headIndex++];
+	for (let si = 0; si < steps.length; si++) {
+		switch (steps[si]) {
+			case Step.Text:
+				out += args[si] as string;
+				break;
+			case Step.Note: {
+				const hi = args[si] as number;
+				const p = plan.pitches[hi];
+				const head = heads[hi];
+				const t = tokens[head.token];
 				const sig = plan.keys[head.key].accidentals[p.letter];
 				const slot = p.letter + 7 * Math.min(15, Math.max(0, p.octave + 1));
 				let needs: boolean;
@@ -56,13 +119,11 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 				else {
 					const l = byLetter[p.letter];
 					const o = byOctave[slot];
-					const readPitch = l === UNSET ? sig : l;
-					const readOctave = o === UNSET ? sig : o;
-					needs = readPitch !== p.alt || readOctave !== p.alt;
+					needs = (l === UNSET ? sig : l) !== p.alt || (o === UNSET ? sig : o) !== p.alt;
 				}
 				let acc = '';
 				if (needs) {
-					acc = ACCIDENTAL_TEXT[p.alt];
+					acc = ACCIDENTAL_TEXT[p.alt + 2];
 					if (acc === undefined) throw new RangeError(`Cannot write alteration ${p.alt} in abc`);
 					if (propagation !== 'not') {
 						byLetter[p.letter] = p.alt;
@@ -77,33 +138,24 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 				} else out += acc + abcLetter(p) + (t.length as string);
 				break;
 			}
-			case 'bar':
-				resetBar();
-				out += t.text;
+			case Step.Chord:
+				out += '"' + plan.chordSymbols[args[si] as number] + '"';
 				break;
-			case 'blank':
-				resetBar();
-				out += t.text;
-				break;
-			case 'field':
-			case 'inline-field': {
-				if (t.name === 'K') {
-					const original = tune.keys[keyIndex].key;
-					const key = plan.keys[keyIndex++];
-					if (formatKeyField(original) === formatKeyField(key)) out += t.text;
-					else if (t.kind === 'field') out += 'K:' + formatKeyField(key);
-					else out += '[K:' + formatKeyField(key) + ']';
-				} else {
-					if (t.name === 'X') resetBar();
-					out += t.text;
-				}
+			case Step.Key: {
+				const ki = args[si] as number;
+				const original = tune.keys[ki].key;
+				const key = plan.keys[ki];
+				const t = tokens[tune.keys[ki].token];
+				if (key === original || formatKeyField(original) === formatKeyField(key)) out += t.text;
+				else if (t.kind === 'field') out += 'K:' + formatKeyField(key);
+				else out += '[K:' + formatKeyField(key) + ']';
 				break;
 			}
-			case 'chord-symbol':
-				out += '"' + plan.chordSymbols[chordIndex++] + '"';
+			case Step.Bar:
+				byLetter.fill(UNSET);
+				for (const i of touched) byOctave[i] = UNSET;
+				touched.length = 0;
 				break;
-			default:
-				out += t.text;
 		}
 	}
 	return out;
@@ -111,7 +163,43 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 
 const ROOT_RE = /(^|[\s/(,|])([A-G])(##|bb|#|b|♯|♭)?/g;
 const ALT_TEXT: Record<string, number> = { '': 0, '#': 1, '##': 2, b: -1, bb: -2, '♯': 1, '♭': -1 };
-const LETTER_NAMES = 'CDEFGAB';
+
+/** A chord symbol cut at its roots: text pieces around each root or bass note. */
+export interface ChordTemplate {
+	/** One more piece than roots: pieces[0] root[0] pieces[1] root[1] … */
+	pieces: string[];
+	roots: SpelledNote[];
+	/** Index in `roots` of a bass note after a slash at the end, or -1. */
+	bass: number;
+}
+
+const templates = new Map<string, ChordTemplate>();
+
+/**
+ * Cut a chord symbol at its roots once; transposing it is then string joins (no regex per variant).
+ * @example chordTemplate('Bb7/D') // { pieces: ['', '7/', ''], roots: [Bb, D], bass: 1 }
+ */
+export function chordTemplate(symbol: string): ChordTemplate {
+	let t = templates.get(symbol);
+	if (t) return t;
+	const pieces: string[] = [];
+	const roots: SpelledNote[] = [];
+	let last = 0;
+	let bass = -1;
+	for (const m of symbol.matchAll(ROOT_RE)) {
+		const at = (m.index ?? 0) + m[1].length;
+		pieces.push(symbol.slice(last, at));
+		roots.push({ letter: 'CDEFGAB'.indexOf(m[2]), alt: ALT_TEXT[m[3] ?? ''] });
+		last = at + m[2].length + (m[3]?.length ?? 0);
+		if (m[1] === '/' && /^\s*\)?\s*$/.test(symbol.slice(last))) bass = roots.length - 1;
+	}
+	pieces.push(symbol.slice(last));
+	t = { pieces, roots, bass };
+	// Licks hold a handful of symbols; a long-running server must not keep every one it has seen.
+	if (templates.size > 2000) templates.clear();
+	templates.set(symbol, t);
+	return t;
+}
 
 /**
  * Transpose the roots and bass notes of a chord symbol and spell them for the key; everything
@@ -121,12 +209,15 @@ const LETTER_NAMES = 'CDEFGAB';
 export function transposeChordSymbol(
 	symbol: string,
 	by: Steps,
-	accidentals: readonly number[]
+	accidentals: readonly number[],
+	moved?: SpelledNote[]
 ): string {
-	if (by.semitones === 0 && by.steps === 0) return symbol;
-	return symbol.replace(ROOT_RE, (_m, lead: string, letter: string, acc: string | undefined) => {
-		const root: SpelledNote = { letter: LETTER_NAMES.indexOf(letter), alt: ALT_TEXT[acc ?? ''] };
-		const moved = simplifyNoteName(transposeNoteName(root, by), accidentals);
-		return lead + LETTER_NAMES[moved.letter] + (moved.alt > 0 ? '#'.repeat(moved.alt) : 'b'.repeat(-moved.alt));
-	});
+	const t = chordTemplate(symbol);
+	let out = t.pieces[0];
+	for (let i = 0; i < t.roots.length; i++) {
+		const root = simplifyNoteName(transposeNoteName(t.roots[i], by), accidentals);
+		if (moved) moved.push(root);
+		out += formatNoteName(root) + t.pieces[i + 1];
+	}
+	return out;
 }

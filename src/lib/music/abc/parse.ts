@@ -50,6 +50,8 @@ export interface ParsedAbc {
 
 export type ParseResult = { ok: true; tune: ParsedAbc } | { ok: false; error: AbcError };
 
+const ACCIDENTAL_ALT: Readonly<Record<string, number>> = { '^^': 2, '^': 1, '=': 0, _: -1, __: -2 };
+
 /** Header fields of abc 2.1 §3 (table of information fields); anything else warns. */
 const KNOWN_FIELDS = 'ABCDFGHIKLMmNOPQRrSsTUVWwXZ+';
 
@@ -285,7 +287,7 @@ function readTokens(
 				const barKey = propagation === 'octave' ? letter + 7 * (octave + 10) : letter;
 				let alt: number;
 				if (acc !== '') {
-					alt = { '^^': 2, '^': 1, '=': 0, _: -1, __: -2 }[acc] as number;
+					alt = ACCIDENTAL_ALT[acc];
 					if (propagation !== 'not') barAlts.set(barKey, alt);
 				} else {
 					alt = barAlts.get(barKey) ?? keys[currentKey].key.accidentals[letter];

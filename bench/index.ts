@@ -1,0 +1,95 @@
+/**
+ * `npm run bench`: the time to compute the full grid (12 keys × 8 chord qualities) of a four-bar
+ * lick of 26 notes, against two yardsticks measured in the same run on the same machine:
+ * - a bare loop of tonal `Note.transpose` over the same notes and intervals (96 × 26 calls);
+ * - abcjs `strTranspose` for the same 96 variants, parsing once (it can only shift semitones:
+ *   no re-mapping, no degrees, chord symbols from a fixed table).
+ * Each figure is the median of several timed batches after a warm-up.
+ */
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import abcjs from 'abcjs';
+import { Interval, Note } from 'tonal';
+import { computeGrid, prepareLick, renderVariant } from '../src/lib/music/engine';
+import { MAJOR_KEY_SPELLINGS } from '../src/lib/music/key-data';
+import type { QualityId } from '../src/lib/music/types';
+
+const LICK = readFileSync(
+	fileURLToPath(new URL('../tests/fixtures/licks/bench-four-bars.abc', import.meta.url)),
+	'utf8'
+);
+const QUALITIES: QualityId[] = ['7', 'm7', 'maj7', 'm7b5', '7alt', 'dim7', '6', 'm6'];
+const KEYS = MAJOR_KEY_SPELLINGS;
+
+/** Median milliseconds per call of `fn`, over `batches` batches of `reps` calls. */
+function measure(fn: () => unknown, reps: number, batches = 15): number {
+	for (let i = 0; i < reps * 3; i++) fn();
+	const times: number[] = [];
+	for (let b = 0; b < batches; b++) {
+		const t0 = performance.now();
+		for (let i = 0; i < reps; i++) fn();
+		times.push((performance.now() - t0) / reps);
+	}
+	times.sort((a, b) => a - b);
+	return times[Math.floor(times.length / 2)];
+}
+
+const prepared = prepareLick(LICK);
+if (!prepared.ok) throw new Error(`The benchmark lick does not parse: ${prepared.error.message}`);
+const { tune } = prepared.lick;
+const pitches = tune.notes.map((n) => n.pitch);
+const home = 'F';
+const intervals = KEYS.map((k) => Interval.distance(home, k));
+
+let sink = 0;
+
+// 1. Our grid: parse once, re-map over 8 qualities, transpose to 12 keys, spell, emit abc, label
+// every note with its degree.
+const gridMs = measure(() => {
+	const grid = computeGrid(LICK, KEYS, QUALITIES);
+	if (!grid.ok) throw new Error(grid.error.message);
+	sink += grid.variants.length;
+}, 20);
+
+// The same without the parse and the re-mapping (they are cached on a prepared lick).
+const renderMs = measure(() => {
+	for (const to of KEYS) for (const quality of QUALITIES) sink += renderVariant(prepared.lick, { to, quality }).abc.length;
+}, 20);
+
+// 2. A bare tonal loop over the same notes and intervals: 96 variants × 26 notes.
+const tonalMs = measure(() => {
+	for (const iv of intervals) {
+		for (let q = 0; q < QUALITIES.length; q++) {
+			for (const p of pitches) sink += Note.transpose(p, iv).length;
+		}
+	}
+}, 20);
+
+// 3. abcjs: parse once, then strTranspose for each of the 96 variants.
+const visual = abcjs.parseOnly(LICK);
+const semitones = KEYS.map((k) => {
+	const s = Interval.semitones(Interval.distance(home, k)) ?? 0;
+	return s > 6 ? s - 12 : s;
+});
+const abcjsMs = measure(() => {
+	for (const s of semitones) {
+		for (let q = 0; q < QUALITIES.length; q++) sink += abcjs.strTranspose(LICK, visual, s).length;
+	}
+}, 5);
+
+const variants = KEYS.length * QUALITIES.length;
+const us = (ms: number) => `${(ms * 1000).toFixed(1)} µs`;
+const lines = [
+	`Lick: ${tune.notes.length} notes, four bars; grid of ${KEYS.length} keys × ${QUALITIES.length} qualities = ${variants} variants`,
+	'',
+	`Twelvefold grid (parse + re-map + transpose + emit + degrees): ${gridMs.toFixed(3)} ms  (${us(gridMs / variants)} a variant)`,
+	`  of which rendering the 96 variants of a prepared lick:       ${renderMs.toFixed(3)} ms  (${us(renderMs / variants)} a variant)`,
+	`tonal Note.transpose loop (${variants} × ${pitches.length} calls):              ${tonalMs.toFixed(3)} ms`,
+	`abcjs strTranspose, ${variants} variants, parsed once:                ${abcjsMs.toFixed(3)} ms  (${us(abcjsMs / variants)} a variant)`,
+	'',
+	`Ratio grid / tonal loop:  ${(gridMs / tonalMs).toFixed(2)}×   (aim ≤ 1.5×)`,
+	`Ratio grid / abcjs:       ${(gridMs / abcjsMs).toFixed(2)}×   (aim < 1×, per variant)`,
+	`Grid under 2 ms:          ${gridMs < 2 ? 'yes' : 'no'}`
+];
+console.log(lines.join('\n'));
+if (sink === 0) console.log('(nothing computed)');

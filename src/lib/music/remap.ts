@@ -113,132 +113,146 @@ for (const from of QUALITY_IDS)
 		);
 	}
 
+// Imported tables read once into module constants: the hot loop then reads plain arrays.
+const LS: readonly number[] = [...LETTER_SEMITONES];
+const DESC: readonly Steps[] = [...DESCENDING_SPELLING];
+const ASC: readonly Steps[] = [...ASCENDING_SPELLING];
+const ACCIDENTALS = ['bb', 'b', '', '#', '##'];
+/** NAMES[letter][alt + 2]: 'Cbb' … 'B##'. */
+const NAMES: readonly (readonly string[])[] = [...LETTERS].map((l) =>
+	ACCIDENTALS.map((a) => l + a)
+);
+
+/** PITCH_NAMES[(letter * 5 + alt + 2) * 12 + octave + 1] for octaves -1..10: no string building. */
+const PITCH_NAMES: readonly string[] = NAMES.flatMap((byAlt) =>
+	byAlt.flatMap((name) => Array.from({ length: 12 }, (_, o) => name + (o - 1)))
+);
+
 /** Spell a pitch at `midi` as an interval above a root, without double accidentals. */
 function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
 	let letter = (root.letter + iv.steps) % 7;
-	const pc = mod12(LETTER_SEMITONES[root.letter] + root.alt + iv.semitones);
-	let alt = smallestMove(LETTER_SEMITONES[letter], pc);
-	if (alt >= 2 || alt <= -2) {
+	const pc = mod12(LS[root.letter] + root.alt + iv.semitones);
+	let alt = smallestMove(LS[letter], pc);
+	while (alt >= 2 || alt <= -2) {
 		// Bbb over a Cdim7-style spelling reads as A: step to the neighbour letter.
 		letter = (letter + (alt > 0 ? 1 : 6)) % 7;
-		alt = smallestMove(LETTER_SEMITONES[letter], pc);
+		alt = smallestMove(LS[letter], pc);
 	}
-	const octave = Math.round((midi - LETTER_SEMITONES[letter] - alt) / 12) - 1;
-	return LETTERS[letter] + (alt > 0 ? '#'.repeat(alt) : 'b'.repeat(-alt)) + octave;
+	const octave = Math.floor((midi - LS[letter] - alt) / 12) - 1;
+	if (octave < -1 || octave > 10) return NAMES[letter][alt + 2] + octave;
+	return PITCH_NAMES[(letter * 5 + alt + 2) * 12 + octave + 1];
 }
 
 function symbolOf(root: SpelledNote, quality: QualityId): string {
-	return (
-		LETTERS[root.letter] + (root.alt > 0 ? '#'.repeat(root.alt) : 'b'.repeat(-root.alt)) + quality
-	);
+	return NAMES[root.letter][root.alt + 2] + quality;
 }
 
 const INTERVAL_NAMES = ['unison', 'half step', 'whole step', 'minor third', 'major third'];
 
+/** The state of one re-mapping, passed to the helpers below (no closures in the hot path). */
+interface Job {
+	notes: readonly SoundingNote[];
+	from: QualityId;
+	to: QualityId;
+	F: QualityTable;
+	T: QualityTable;
+	moves: readonly Move[];
+	/** Root of each note's chord, or null when the note stays as written. */
+	roots: (SpelledNote | null)[];
+	semis: Int8Array;
+	/** 1 where the note is a chord tone of the source. */
+	isTone: Uint8Array;
+	midis: Int16Array;
+	pitches: PitchName[];
+	/** 1 where the note has its new pitch. */
+	done: Uint8Array;
+	/** Second home (semitones) of each note mapped by degree, or -1. */
+	alternative: Int8Array;
+	/** Note each approach tone leads to, or -1. */
+	targets: Int16Array;
+	/** First note of each ambiguous source label, and all its notes. */
+	ambiguous: Map<string, number[]> | null;
+	avoid: number[] | null;
+	warnings: MusicWarning[];
+}
+
 /**
- * Re-map a line from one chord quality to another over the same root.
- * @example remapNotes(notesOf('F#4 F4 E4 Eb4 D4', 'D7'), { from: '7', to: 'm7' }).pitches // F4 F4 E4 Eb4 D4
+ * One set of working arrays, reused by every call (re-mapping is synchronous and not re-entrant),
+ * so that the grid of keys and qualities allocates little more than its results.
  */
-export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions): RemapResult {
-	const { from, to } = options;
-	const moves = MOVES.get(from + '>' + to);
-	if (!moves) throw new MusicInvariantError(`Cannot re-map from '${from}' to '${to}'`);
-	if (from === to || notes.length === 0)
-		return { pitches: notes.map((n) => n.pitch), warnings: [] };
-	const homeName = options.root ?? notes.find((n) => n.chord)?.chord?.root;
-	if (homeName === undefined)
-		throw new MusicInvariantError(
-			'remapNotes needs options.root when no note has a chord in force'
-		);
-	const homeChroma = chromaOfName(homeName);
-	const F = qualityTable(from);
-	const T = qualityTable(to);
+let shared: Job | null = null;
+function scratch(n: number): Job {
+	if (!shared || shared.semis.length < n) {
+		const size = Math.max(n, 64, shared ? shared.semis.length * 2 : 0);
+		shared = {
+			notes: [],
+			from: '7',
+			to: '7',
+			F: qualityTable('7'),
+			T: qualityTable('7'),
+			moves: [],
+			roots: new Array(size).fill(null),
+			semis: new Int8Array(size),
+			isTone: new Uint8Array(size),
+			midis: new Int16Array(size),
+			pitches: [],
+			done: new Uint8Array(size),
+			alternative: new Int8Array(size),
+			targets: new Int16Array(size),
+			ambiguous: null,
+			avoid: null,
+			warnings: []
+		};
+	}
+	shared.done.fill(0, 0, n);
+	shared.alternative.fill(-1, 0, n);
+	shared.targets.fill(-1, 0, n);
+	return shared;
+}
+
+function place(job: Job, i: number, midi: number, iv: Steps): void {
+	job.midis[i] = midi;
+	job.pitches[i] = spell(job.roots[i]!, iv, midi);
+	job.done[i] = 1;
+}
+
+function byDegree(job: Job, i: number): void {
+	const { notes, semis, F, T } = job;
+	const s = semis[i];
+	const move = job.moves[s];
+	const candidates = move.candidates;
+	let t = candidates[0];
+	if (candidates.length > 1) {
+		const a = candidates[0];
+		const b = candidates[1];
+		const da = smallestMove(s, a);
+		const db = smallestMove(s, b);
+		// A tie between two homes goes the way the line moves next.
+		if (Math.abs(da) === Math.abs(db) && i + 1 < notes.length) {
+			const up = notes[i + 1].midi > notes[i].midi;
+			t = (up ? da > db : da < db) ? a : b;
+		}
+	}
+	place(job, i, notes[i].midi + smallestMove(s, t), T.spelling[t]);
+	const other = move.alternative === t ? candidates[0] : move.alternative;
+	// A chord tone that landed on a chord tone keeps it; anything else may move aside.
+	const anchored = F.roles[s] === 'chord-tone' && T.roles[t] === 'chord-tone';
+	if (other !== null && other !== t && !anchored) job.alternative[i] = other;
+	if (candidates.length > 1 || (move.reason && t !== s)) {
+		job.ambiguous ??= new Map();
+		const label = F.labels[s];
+		const list = job.ambiguous.get(label);
+		if (list) list.push(i);
+		else job.ambiguous.set(label, [i]);
+	}
+	if (T.roles[t] === 'avoid' && F.roles[s] !== 'avoid' && notes[i].duration >= 0.25)
+		(job.avoid ??= []).push(i);
+}
+
+/** Chromatic runs between two chord tones, re-derived backwards from the second. */
+function mapRuns(job: Job): void {
+	const { notes, roots, isTone, midis } = job;
 	const n = notes.length;
-
-	// Context of each note: its root, or null when it stays as written.
-	const roots: (SpelledNote | null)[] = new Array(n);
-	const semis = new Array<number>(n);
-	const isTone = new Array<boolean>(n);
-	const kept: number[] = [];
-	for (let i = 0; i < n; i++) {
-		const chord = notes[i].chord;
-		let rootName = homeName;
-		if (chord) {
-			if (chord.quality !== from && chromaOfName(chord.root) !== homeChroma) {
-				roots[i] = null;
-				kept.push(i);
-				continue;
-			}
-			rootName = chord.root;
-		}
-		const root = readNote(rootName);
-		roots[i] = root;
-		const s = mod12(notes[i].midi - LETTER_SEMITONES[root.letter] - root.alt);
-		semis[i] = s;
-		isTone[i] = F.roles[s] === 'chord-tone';
-	}
-
-	const midis = new Array<number>(n);
-	const pitches = new Array<PitchName>(n);
-	const done = new Array<boolean>(n).fill(false);
-	const alternative = new Array<number | null>(n).fill(null);
-	const warnings: MusicWarning[] = [];
-	const ambiguous = new Map<string, { notes: number[]; message: string }>();
-	const avoid: { i: number; label: string }[] = [];
-
-	const place = (i: number, midi: number, iv: Steps): void => {
-		midis[i] = midi;
-		pitches[i] = spell(roots[i]!, iv, midi);
-		done[i] = true;
-	};
-	const byDegree = (i: number): void => {
-		const s = semis[i];
-		const move = moves[s];
-		let t = move.candidates[0];
-		if (move.candidates.length > 1) {
-			const [a, b] = move.candidates;
-			const da = smallestMove(s, a);
-			const db = smallestMove(s, b);
-			const next = notes[i + 1];
-			// A tie between two homes goes the way the line moves next.
-			if (Math.abs(da) === Math.abs(db) && next) {
-				const up = next.midi > notes[i].midi;
-				t = (up ? da > db : da < db) ? a : b;
-			}
-		}
-		place(i, notes[i].midi + smallestMove(s, t), T.spelling[t]);
-		const other = move.alternative === t ? move.candidates[0] : move.alternative;
-		if (other !== null && other !== t) alternative[i] = other;
-		if (move.candidates.length > 1 || (move.reason && t !== s)) {
-			const label = F.labels[s];
-			const entry = ambiguous.get(label) ?? { notes: [], message: '' };
-			if (!entry.message) {
-				const others = move.candidates
-					.filter((c) => c !== t)
-					.map((c) => `the ${T.labels[c]}`)
-					.join(' or ');
-				entry.message =
-					`The ${label} of ${symbolOf(roots[i]!, from)} has no single place over ` +
-					`${symbolOf(roots[i]!, to)}: written as the ${T.labels[t]} (${pitches[i]}); ` +
-					(move.reason ?? `${others} would also do`) +
-					'.';
-			}
-			entry.notes.push(notes[i].index);
-			ambiguous.set(label, entry);
-		}
-		if (T.roles[t] === 'avoid' && F.roles[s] !== 'avoid' && notes[i].duration >= 0.25)
-			avoid.push({ i, label: T.labels[t] });
-	};
-
-	// 1. Chord tones first: every approach is derived from where they land.
-	for (let i = 0; i < n; i++) if (roots[i] && isTone[i]) byDegree(i);
-	for (const i of kept) {
-		midis[i] = notes[i].midi;
-		pitches[i] = notes[i].pitch;
-		done[i] = true;
-	}
-
-	// 2. Chromatic runs between two chord tones, re-derived backwards from the second.
 	for (let a = 0; a < n - 1; a++) {
 		if (!roots[a] || !isTone[a]) continue;
 		const d = notes[a + 1].midi - notes[a].midi;
@@ -250,87 +264,98 @@ export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions
 		const gap = midis[b] - midis[a];
 		const span = Math.abs(gap);
 		const dir = gap === 0 ? d : Math.sign(gap);
-		const table = dir < 0 ? DESCENDING_SPELLING : ASCENDING_SPELLING;
+		const table = dir < 0 ? DESC : ASC;
 		for (let k = a + 1; k < b; k++) {
 			const midi = midis[b] - dir * Math.min(b - k, span);
 			const root = roots[k]!;
-			place(k, midi, table[mod12(midi - LETTER_SEMITONES[root.letter] - root.alt)]);
+			place(job, k, midi, table[mod12(midi - LS[root.letter] - root.alt)]);
 		}
-		const passing = b - a - 1;
-		const room = Math.max(span - 1, 0);
-		if (passing !== room) {
-			const source = Math.abs(notes[b].midi - notes[a].midi);
-			const fromChord = symbolOf(roots[a]!, from);
-			const toChord = symbolOf(roots[a]!, to);
-			const ends = `the ${F.labels[semis[a]]} (${notes[a].pitch}) ${d < 0 ? 'down' : 'up'} to the ${F.labels[semis[b]]} (${notes[b].pitch})`;
-			const now = `${INTERVAL_NAMES[span] ?? `${span} semitones`} (${pitches[a]} to ${pitches[b]})`;
-			const matching = matchingSpans(T, source, d)
-				.map(([x, y]) => `${T.labels[x]} → ${T.labels[y]}`)
-				.join(', ');
-			const hint = matching
-				? ` Moving the figure to the ${INTERVAL_NAMES[source] ?? 'same span'} ${matching} of ${toChord} keeps it whole; or write this version by hand.`
-				: ' Write this version by hand if it matters.';
-			warnings.push(
-				passing > room
-					? {
-							code: 'fill-too-long',
-							message: `The chromatic fill from ${ends} over ${fromChord} spans a ${INTERVAL_NAMES[source] ?? `${source} semitones`}; over ${toChord} the same chord tones are a ${now} apart, so ${passing - room === 1 ? 'one passing tone is' : `${passing - room} passing tones are`} too many and a pitch repeats.${hint}`,
-							notes: range(notes, a, b)
-						}
-					: {
-							code: 'fill-gap',
-							message: `The chromatic fill from ${ends} over ${fromChord} becomes a ${now} over ${toChord}: there is room for ${room - passing === 1 ? 'one more passing tone' : `${room - passing} more passing tones`}, so the line now skips a half step.${hint}`,
-							notes: range(notes, a, b)
-						}
-			);
-		}
+		if (b - a - 1 !== Math.max(span - 1, 0)) job.warnings.push(fillWarning(job, a, b, span));
 		a = b - 1;
 	}
+}
 
-	// 3. Everything else by degree, then single approach tones from where their targets went.
-	const targets = new Array<number>(n).fill(-1);
-	for (let i = 0; i < n; i++) {
-		if (done[i]) continue;
-		targets[i] = approachTarget(notes, roots, isTone, F, semis, i);
-		if (targets[i] < 0) byDegree(i);
-	}
-	for (let i = 0; i < n; i++) {
-		const target = targets[i];
-		if (target < 0) continue;
-		const offset = notes[i].midi - notes[target].midi;
-		const midi = midis[target] + offset;
-		const root = roots[i]!;
-		const table = offset > 0 ? DESCENDING_SPELLING : ASCENDING_SPELLING;
-		place(i, midi, table[mod12(midi - LETTER_SEMITONES[root.letter] - root.alt)]);
-	}
+function fillWarning(job: Job, a: number, b: number, span: number): MusicWarning {
+	const { notes, roots, semis, pitches, F, T } = job;
+	const d = Math.sign(notes[b].midi - notes[a].midi);
+	const passing = b - a - 1;
+	const room = Math.max(span - 1, 0);
+	const source = Math.abs(notes[b].midi - notes[a].midi);
+	const fromChord = symbolOf(roots[a]!, job.from);
+	const toChord = symbolOf(roots[a]!, job.to);
+	const ends = `the ${F.labels[semis[a]]} (${notes[a].pitch}) ${d < 0 ? 'down' : 'up'} to the ${F.labels[semis[b]]} (${notes[b].pitch})`;
+	const now = `${INTERVAL_NAMES[span] ?? `${span} semitones`} (${pitches[a]} to ${pitches[b]})`;
+	const matching = matchingSpans(T, source, d)
+		.map(([x, y]) => `${T.labels[x]} → ${T.labels[y]}`)
+		.join(', ');
+	const hint = matching
+		? ` Moving the figure to the ${INTERVAL_NAMES[source] ?? 'same span'} ${matching} of ${toChord} keeps it whole; or write this version by hand.`
+		: ' Write this version by hand if it matters.';
+	const notesConcerned = range(notes, a, b);
+	if (passing > room)
+		return {
+			code: 'fill-too-long',
+			message: `The chromatic fill from ${ends} over ${fromChord} spans a ${INTERVAL_NAMES[source] ?? `${source} semitones`}; over ${toChord} the same chord tones are a ${now} apart, so ${passing - room === 1 ? 'one passing tone is' : `${passing - room} passing tones are`} too many and a pitch repeats.${hint}`,
+			notes: notesConcerned
+		};
+	return {
+		code: 'fill-gap',
+		message: `The chromatic fill from ${ends} over ${fromChord} becomes a ${now} over ${toChord}: there is room for ${room - passing === 1 ? 'one more passing tone' : `${room - passing} more passing tones`}, so the line now skips a half step.${hint}`,
+		notes: notesConcerned
+	};
+}
 
-	// 4. A note with a second home takes it when its first one collides with a neighbour and the
-	// second does not (13 → bb7 on dim7 would meet the b7 → bb7 next to it: it becomes b13).
-	const collides = (i: number, midi: number, j: number): boolean =>
-		j >= 0 && j < n && midis[j] === midi && notes[j].midi !== notes[i].midi;
-	for (let i = 0; i < n; i++) {
-		const other = alternative[i];
-		if (other === null || !(collides(i, midis[i], i - 1) || collides(i, midis[i], i + 1))) continue;
-		const midi = notes[i].midi + smallestMove(semis[i], other);
-		if (collides(i, midi, i - 1) || collides(i, midi, i + 1)) continue;
-		place(i, midi, T.spelling[other]);
-	}
+function collides(job: Job, i: number, midi: number, j: number): boolean {
+	return (
+		j >= 0 &&
+		j < job.notes.length &&
+		job.midis[j] === midi &&
+		job.notes[j].midi !== job.notes[i].midi
+	);
+}
 
-	for (const [, entry] of ambiguous)
-		warnings.push({ code: 'ambiguous', message: entry.message, notes: entry.notes });
-	if (avoid.length)
+/** Where note i went, as semitones above its root in the target. */
+const landedAt = (job: Job, i: number): number =>
+	mod12(job.semis[i] + job.midis[i] - job.notes[i].midi);
+
+function finalWarnings(job: Job, kept: number[], homeName: NoteName): void {
+	const { notes, roots, pitches, midis, T, warnings } = job;
+	const n = notes.length;
+	for (const [label, list] of job.ambiguous ?? []) {
+		const i = list[0];
+		const s = job.semis[i];
+		const t = landedAt(job, i);
+		const move = job.moves[s];
+		const others = move.candidates
+			.filter((c) => c !== t)
+			.map((c) => `the ${T.labels[c]}`)
+			.join(' or ');
+		warnings.push({
+			code: 'ambiguous',
+			message:
+				`The ${label} of ${symbolOf(roots[i]!, job.from)} has no single place over ` +
+				`${symbolOf(roots[i]!, job.to)}: written as the ${T.labels[t]} (${pitches[i]}); ` +
+				(move.candidates.length > 1 ? `${others} would also do` : (move.reason ?? '')) +
+				'.',
+			notes: list.map((k) => notes[k].index)
+		});
+	}
+	const avoid = job.avoid;
+	if (avoid)
 		warnings.push({
 			code: 'avoid-note',
-			message: `${avoid.map(({ i, label }) => `${pitches[i]} (the ${label})`).join(', ')} ${avoid.length === 1 ? 'is an avoid note' : 'are avoid notes'} over ${symbolOf(roots[avoid[0].i]!, to)} and ${avoid.length === 1 ? 'lasts' : 'last'} a quarter note or more.`,
-			notes: avoid.map(({ i }) => notes[i].index)
+			message: `${avoid.map((i) => `${pitches[i]} (the ${T.labels[landedAt(job, i)]})`).join(', ')} ${avoid.length === 1 ? 'is an avoid note' : 'are avoid notes'} over ${symbolOf(roots[avoid[0]]!, job.to)} and ${avoid.length === 1 ? 'lasts' : 'last'} a quarter note or more.`,
+			notes: avoid.map((i) => notes[i].index)
 		});
 	for (let i = 0; i + 1 < n; i++) {
-		if (midis[i] === midis[i + 1] && notes[i].midi !== notes[i + 1].midi)
+		if (midis[i] === midis[i + 1] && notes[i].midi !== notes[i + 1].midi) {
+			const root = roots[i] ?? readNote(homeName);
 			warnings.push({
 				code: 'collision',
-				message: `Two notes that differ over ${symbolOf(roots[i] ?? readNote(homeName), from)} (${notes[i].pitch}, ${notes[i + 1].pitch}) become the same pitch ${pitches[i]} over ${symbolOf(roots[i] ?? readNote(homeName), to)}.`,
+				message: `Two notes that differ over ${symbolOf(root, job.from)} (${notes[i].pitch}, ${notes[i + 1].pitch}) become the same pitch ${pitches[i]} over ${symbolOf(root, job.to)}.`,
 				notes: [notes[i].index, notes[i + 1].index]
 			});
+		}
 	}
 	if (kept.length)
 		warnings.push({
@@ -338,8 +363,103 @@ export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions
 			message: `${kept.length === 1 ? 'One note sounds' : `${kept.length} notes sound`} over another chord of the progression (${[...new Set(kept.map((i) => notes[i].chord!.symbol))].join(', ')}) and ${kept.length === 1 ? 'is' : 'are'} left as written.`,
 			notes: kept.map((i) => notes[i].index)
 		});
-	return { pitches, warnings };
 }
+
+/**
+ * Re-map a line from one chord quality to another over the same root.
+ * @example remapNotes(notesOf('F#4 F4 E4 Eb4 D4', 'D7'), { from: '7', to: 'm7' }).pitches // F4 F4 E4 Eb4 D4
+ */
+export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions): RemapResult {
+	const { from, to } = options;
+	const moves = MOVES.get(from + '>' + to);
+	if (!moves) throw new MusicInvariantError(`Cannot re-map from '${from}' to '${to}'`);
+	const n = notes.length;
+	if (from === to || n === 0) return { pitches: notes.map(pitchOf), warnings: [] };
+	let homeName = options.root;
+	for (let i = 0; homeName === undefined && i < n; i++) homeName = notes[i].chord?.root;
+	if (homeName === undefined)
+		throw new MusicInvariantError(
+			'remapNotes needs options.root when no note has a chord in force'
+		);
+	const homeChroma = chromaOfName(homeName);
+	const F = qualityTable(from);
+	const job = scratch(n);
+	job.notes = notes;
+	job.from = from;
+	job.to = to;
+	job.F = F;
+	job.T = qualityTable(to);
+	job.moves = moves;
+	job.pitches = new Array<PitchName>(n);
+	job.ambiguous = null;
+	job.avoid = null;
+	job.warnings = [];
+	const { roots, semis, isTone, midis, pitches, done } = job;
+
+	// Context of each note; consecutive notes share a chord object, so it is read once.
+	const kept: number[] = [];
+	let lastChord: SoundingNote['chord'] | undefined = undefined;
+	let lastRoot: SpelledNote | null = null;
+	for (let i = 0; i < n; i++) {
+		const chord = notes[i].chord;
+		if (chord !== lastChord) {
+			lastChord = chord;
+			lastRoot =
+				chord && chord.quality !== from && chromaOfName(chord.root) !== homeChroma
+					? null
+					: readNote(chord ? chord.root : homeName);
+		}
+		const root = lastRoot;
+		roots[i] = root;
+		if (!root) {
+			kept.push(i);
+			midis[i] = notes[i].midi;
+			pitches[i] = notes[i].pitch;
+			done[i] = 1;
+			continue;
+		}
+		const s = mod12(notes[i].midi - LS[root.letter] - root.alt);
+		semis[i] = s;
+		isTone[i] = F.roles[s] === 'chord-tone' ? 1 : 0;
+	}
+
+	// 1. Chord tones first: every approach is derived from where they land.
+	for (let i = 0; i < n; i++) if (roots[i] && isTone[i]) byDegree(job, i);
+	// 2. Chromatic runs between chord tones.
+	mapRuns(job);
+	// 3. Everything else by degree, then single approach tones from where their targets went.
+	const targets = job.targets;
+	for (let i = 0; i < n; i++) {
+		if (done[i]) continue;
+		targets[i] = approachTarget(job, i);
+		if (targets[i] < 0) byDegree(job, i);
+	}
+	for (let i = 0; i < n; i++) {
+		const target = targets[i];
+		if (target < 0) continue;
+		const offset = notes[i].midi - notes[target].midi;
+		const midi = midis[target] + offset;
+		const root = roots[i]!;
+		place(job, i, midi, (offset > 0 ? DESC : ASC)[mod12(midi - LS[root.letter] - root.alt)]);
+	}
+	// 4. A note with a second home takes it when its first one collides with a neighbour and the
+	// second does not (13 → bb7 on dim7 would meet the b7 → bb7 next to it: it becomes b13).
+	for (let i = 0; i < n; i++) {
+		const other = job.alternative[i];
+		if (other < 0 || !(collides(job, i, midis[i], i - 1) || collides(job, i, midis[i], i + 1)))
+			continue;
+		const midi = notes[i].midi + smallestMove(semis[i], other);
+		if (collides(job, i, midi, i - 1) || collides(job, i, midi, i + 1)) continue;
+		place(job, i, midi, job.T.spelling[other]);
+	}
+	finalWarnings(job, kept, homeName);
+	const result = { pitches, warnings: job.warnings };
+	job.notes = [];
+	job.roots.fill(null);
+	return result;
+}
+
+const pitchOf = (n: SoundingNote): PitchName => n.pitch;
 
 function range(notes: readonly SoundingNote[], a: number, b: number): number[] {
 	const out: number[] = [];
@@ -364,26 +484,19 @@ function matchingSpans(T: QualityTable, span: number, d: number): [number, numbe
  * scale of the chord), or within a whole step of the note after it when the note between lies on
  * the target's other side (an enclosure).
  */
-function approachTarget(
-	notes: readonly SoundingNote[],
-	roots: readonly (SpelledNote | null)[],
-	isTone: readonly boolean[],
-	F: QualityTable,
-	semis: readonly number[],
-	i: number
-): number {
+function approachTarget(job: Job, i: number): number {
+	const { notes, roots, isTone, F, semis } = job;
 	// Steps of the parent scale itself (11 → 3 on a dominant) are melody, not approaches.
 	if (F.inParentScale[semis[i]]) return -1;
-	const isTarget = (t: number) => !roots[t] || isTone[t] || F.inParentScale[semis[t]];
 	const here = notes[i].midi;
 	const outside = !F.inScale[semis[i]];
 	const next = i + 1;
-	if (next < notes.length && isTarget(next)) {
+	if (next < notes.length && (!roots[next] || isTone[next] || F.inParentScale[semis[next]])) {
 		const d = Math.abs(notes[next].midi - here);
 		if (d === 1 || (outside && d === 2)) return next;
 	}
 	const after = i + 2;
-	if (after < notes.length && isTarget(after)) {
+	if (after < notes.length && (!roots[after] || isTone[after] || F.inParentScale[semis[after]])) {
 		const t = notes[after].midi;
 		const d = here - t;
 		const between = notes[next].midi - t;

@@ -268,3 +268,12 @@ export function jazzTonic(pc: number, mode: Mode, tritone: TritoneSpelling = 'Gb
 	);
 	return candidates[0].t;
 }
+
+/**
+ * The twelve keys of a drill in the usual jazz spelling, C upwards by half steps, the tritone
+ * key by setting (common practice; REFERENCES.md §2).
+ * @example twelveKeys('major', 'F#') // ['C', 'Db', 'D', 'Eb', 'E', 'F', 'F#', 'G', 'Ab', 'A', 'Bb', 'B']
+ */
+export function twelveKeys(mode: Mode = 'major', tritone: TritoneSpelling = 'Gb'): KeyName[] {
+	return Array.from({ length: 12 }, (_, pc) => formatNoteName(jazzTonic(pc, mode, tritone)));
+}

@@ -18,19 +18,25 @@ import type { MusicWarning } from './types';
 
 /**
  * The enharmonic key with fewer accidentals, when there is one; a warning says what changed.
- * Ties (F# / Gb major) keep the spelling asked for.
+ * On a tie (F# / Gb major, six each) the spelling asked for stays, unless `ties` is 'setting':
+ * then the tritone setting decides, without a warning (keys the engine derives itself, such as
+ * a transposing instrument's written key, follow the learner's setting).
  * @example respellKey(keyOf('G#')) // { key: Ab major, warning: { code: 'key-respelled', … } }
  */
 export function respellKey(
 	key: KeySignature,
-	tritone: TritoneSpelling = 'Gb'
+	tritone: TritoneSpelling = 'Gb',
+	ties: 'keep' | 'setting' = 'keep'
 ): { key: KeySignature; warning: MusicWarning | null } {
 	if (key.none) return { key, warning: null };
 	const pc = chromaOf(key.tonic);
 	const better = jazzTonic(pc, key.mode, tritone);
 	const betterFifths = fifthsOf(better) + MODE_FIFTHS[key.mode];
-	if (Math.abs(betterFifths) >= Math.abs(key.fifths)) return { key, warning: null };
+	const gain = Math.abs(key.fifths) - Math.abs(betterFifths);
+	const same = better.letter === key.tonic.letter && better.alt === key.tonic.alt;
+	if (same || gain < 0 || (gain === 0 && ties === 'keep')) return { key, warning: null };
 	const next = { ...keyOf(better, key.mode), rest: key.rest };
+	if (gain === 0) return { key: next, warning: null };
 	const from = formatNoteName(key.tonic) + modeSuffix(key.mode);
 	const to = formatNoteName(better) + modeSuffix(key.mode);
 	return {

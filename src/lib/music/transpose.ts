@@ -57,11 +57,12 @@ export function transposeNoteName(n: SpelledNote, by: Steps): SpelledNote {
 export function transposeKey(
 	key: KeySignature,
 	by: Steps,
-	tritone: TritoneSpelling = 'Gb'
+	tritone: TritoneSpelling = 'Gb',
+	ties: 'keep' | 'setting' = 'keep'
 ): { key: KeySignature; warning: MusicWarning | null } {
 	if (key.none) return { key, warning: null };
 	const moved = { ...keyOf(transposeNoteName(key.tonic, by), key.mode), rest: key.rest };
-	const { key: spelled, warning } = respellKey(moved, tritone);
+	const { key: spelled, warning } = respellKey(moved, tritone, ties);
 	// A respelled key moves every letter one step (G# → Ab is a diminished second, 0 semitones).
 	const shift = stepsBetween(moved.tonic, spelled.tonic);
 	const letterShift = shift.steps > 3 ? shift.steps - 7 : shift.steps;
@@ -130,8 +131,10 @@ export function planKeys(
 	const octaves = options.octaves ?? 0;
 	interval = addSteps(interval, { steps: 7 * octaves, semitones: 12 * octaves });
 	const out: KeySignature[] = [];
-	for (const key of keys) {
-		const moved = transposeKey(key, interval, tritone);
+	for (let i = 0; i < keys.length; i++) {
+		const key = keys[i];
+		// The target keeps the spelling asked for; later key changes follow the tritone setting.
+		const moved = transposeKey(key, interval, tritone, i === 0 || !to ? 'keep' : 'setting');
 		if (moved.warning && !warnings.some((w) => w.message === moved.warning?.message)) {
 			warnings.push(moved.warning);
 		}
@@ -154,7 +157,7 @@ export function shiftPlan(
 	const interval = addSteps(plan.interval, by);
 	const warnings: MusicWarning[] = [];
 	const out = keys.map((key) => {
-		const moved = transposeKey(key, interval, tritone);
+		const moved = transposeKey(key, interval, tritone, 'setting');
 		if (moved.warning && !warnings.some((w) => w.message === moved.warning?.message)) {
 			warnings.push(moved.warning);
 		}

@@ -92,6 +92,22 @@ describe('computeVariant', () => {
 		expect(variant(HEAD + 'K:C\nC|\n', { instrument: 'trombone' }).writtenKey).toBe('C clef=bass');
 	});
 
+	it('writes a derived tritone key by the tritone setting (concert E on B-flat trumpet is F# or Gb)', () => {
+		const abc = HEAD + 'K:E\nEGB|\n';
+		expect(variant(abc, { instrument: 'trumpet', tritone: 'Gb' }).writtenKey).toBe('Gb');
+		expect(variant(abc, { instrument: 'trumpet', tritone: 'F#' }).writtenKey).toBe('F#');
+		// the same sounds either way
+		const a = variant(abc, { instrument: 'trumpet', tritone: 'Gb' });
+		const b = variant(abc, { instrument: 'trumpet', tritone: 'F#' });
+		expect(a.notes).toEqual(b.notes);
+	});
+
+	it('moves the line by whole octaves when asked', () => {
+		const up = variant(HEAD + 'K:C\nCEG|\n', { to: 'D', octaves: 1 });
+		expect(up.notes.map((n) => n.pitch)).toEqual(['D5', 'F#5', 'A5']);
+		expect(up.abc).toContain('K:D\ndfa|');
+	});
+
 	it('spells the tritone key as asked, the same pitch classes either way', () => {
 		const gb = variant(HEAD + 'K:C\nCEG|\n', { to: 'Gb' });
 		const fs = variant(HEAD + 'K:C\nCEG|\n', { to: 'F#' });

@@ -6,6 +6,7 @@ import {
 	keyOf,
 	parseKeyField,
 	signatureAccidentals,
+	twelveKeys,
 	type KeySignature
 } from '../../../src/lib/music/keys';
 import { CYCLE_OF_FOURTHS, MAJOR_KEY_SPELLINGS, MINOR_KEY_SPELLINGS } from '../../../src/lib/music/key-data';
@@ -121,6 +122,11 @@ describe('key signatures', () => {
 				expect(Math.abs(keyOf(jazzTonic(pc, mode), mode).fifths), `${mode} ${pc}`).toBeLessThanOrEqual(6);
 			}
 		}
+	});
+
+	it('lists twelve drill keys per mode and tritone setting', () => {
+		expect(twelveKeys('major', 'F#')).toEqual(['C', 'Db', 'D', 'Eb', 'E', 'F', 'F#', 'G', 'Ab', 'A', 'Bb', 'B']);
+		expect(twelveKeys('minor')).toEqual([...MINOR_KEY_SPELLINGS]);
 	});
 
 	it('lists the cycle of fourths as C F Bb Eb Ab Db Gb B E A D G (common practice)', () => {

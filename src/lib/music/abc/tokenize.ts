@@ -103,6 +103,7 @@ export function tokenize(input: string): TokenizeResult {
 	const tokens: Token[] = [];
 	const warnings: { message: string; line: number; column: number }[] = [];
 	let state: 'free' | 'header' | 'body' = 'free';
+	let sawTune = false;
 	let offset = 0;
 	let lineNo = 0;
 	// A music line ending in `\` continues on the next line even across a comment line (§2.2.6).
@@ -145,7 +146,10 @@ export function tokenize(input: string): TokenizeResult {
 			const valueEnd = commentAt < 0 ? line.length : commentAt;
 			push('field', 0, valueEnd, { name, value: line.slice(2, valueEnd) });
 			if (commentAt >= 0) push('comment', commentAt, line.length);
-			if (name === 'K' && state === 'header') state = 'body';
+			if (name === 'K' && state === 'header') {
+				state = 'body';
+				sawTune = true;
+			}
 		} else if (state === 'body') {
 			const error = tokenizeMusicLine(line, push, warnings, lineNo);
 			if (error) return { ok: false, error };
@@ -160,6 +164,16 @@ export function tokenize(input: string): TokenizeResult {
 				}
 			};
 		} else {
+			// Free text between tunes is allowed (§2.2), but after a tune it is most often music
+			// cut off by a stray empty line: say so rather than drop the notes in silence.
+			if (sawTune && /[A-Ga-g]/.test(line)) {
+				warnings.push({
+					message:
+						'This line comes after an empty line, which ends the tune (abc 2.1 §2.2), so it is not read as music; remove the empty line to continue the tune.',
+					line: lineNo,
+					column: 1
+				});
+			}
 			push('text', 0, line.length);
 		}
 		if (end < input.length) {

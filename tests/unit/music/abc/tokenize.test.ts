@@ -72,6 +72,15 @@ describe('abc tokenizer', () => {
 		if (r.ok) expect(r.warnings.map((w) => w.column)).toEqual([2, 5]);
 	});
 
+	it('warns when an empty line cuts the music off (abc 2.1 §2.2: an empty line ends the tune)', () => {
+		const r = tokenize(HEAD + 'ab\n\ncd\n');
+		expect(r.ok && r.warnings.map((w) => [w.line, w.message.includes('empty line')])).toEqual([[8, true]]);
+		expect(r.ok && r.tokens.filter((t) => t.kind === 'note').length).toBe(2);
+		// free text before the first tune is fine and silent
+		const before = tokenize('Some notes about the file\n\n' + HEAD + 'ab\n');
+		expect(before.ok && before.warnings).toEqual([]);
+	});
+
 	it('keeps a comment line inside a tune and keeps the tune going (abc 2.1 §2.2.5)', () => {
 		const r = tokenize(HEAD + 'ab\n% comment\ncd\n');
 		expect(r.ok && r.tokens.filter((t) => t.kind === 'note').length).toBe(4);

@@ -53,7 +53,9 @@ const gridMs = measure(() => {
 
 // The same without the parse and the re-mapping (they are cached on a prepared lick).
 const renderMs = measure(() => {
-	for (const to of KEYS) for (const quality of QUALITIES) sink += renderVariant(prepared.lick, { to, quality }).abc.length;
+	for (const to of KEYS)
+		for (const quality of QUALITIES)
+			sink += renderVariant(prepared.lick, { to, quality }).abc.length;
 }, 20);
 
 // 2. A bare tonal loop over the same notes and intervals: 96 variants × 26 notes.

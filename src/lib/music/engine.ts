@@ -34,7 +34,14 @@ import {
 } from './pitch';
 import { simplifySpelling } from './spelling';
 import { planKeys, shiftPlan, type KeyPlan } from './transpose';
-import { QUALITY_IDS, type ChordContext, type KeyName, type MusicWarning, type PitchName, type QualityId } from './types';
+import {
+	QUALITY_IDS,
+	type ChordContext,
+	type KeyName,
+	type MusicWarning,
+	type PitchName,
+	type QualityId
+} from './types';
 
 export type { AbcError } from './abc/tokenize';
 
@@ -135,7 +142,12 @@ export class VariantRequestError extends Error {
 const readChord = (symbol: string): ChordContext | null => {
 	const parsed = parseChordSymbol(symbol) ?? parseChordSymbol(symbol.trim().split(/\s+/)[0]);
 	return (
-		parsed && { symbol: symbol.trim(), root: parsed.root, quality: parsed.quality, bass: parsed.bass }
+		parsed && {
+			symbol: symbol.trim(),
+			root: parsed.root,
+			quality: parsed.quality,
+			bass: parsed.bass
+		}
 	);
 };
 
@@ -296,11 +308,7 @@ function concertPlan(
 	const id = `${to ?? ''}|${tritone}|${octaves}`;
 	let plan = lick.plans.get(id);
 	if (!plan) {
-		plan = planKeys(
-			lick.keys,
-			target,
-			{ tritone, octaves }
-		);
+		plan = planKeys(lick.keys, target, { tritone, octaves });
 		lick.plans.set(id, plan);
 	}
 	return plan;
@@ -339,7 +347,9 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		tritone
 	);
 	const writtenPitches =
-		written === concert ? concertPitches : movePitches(tune, layer.pitches, written.interval, written.keys);
+		written === concert
+			? concertPitches
+			: movePitches(tune, layer.pitches, written.interval, written.keys);
 	const writtenChords =
 		written === concert ? concertChords : moveChords(tune, layer, written.interval, written.keys);
 
@@ -453,7 +463,8 @@ function withClef(key: KeySignature, clef: string): KeySignature {
 export function computeVariant(
 	request: { abc: string } & VariantOptions
 ): VariantResult | { ok: false; error: { message: string; line?: number; column?: number } } {
-	if (typeof request.abc !== 'string') return { ok: false, error: { message: 'The abc text is missing.' } };
+	if (typeof request.abc !== 'string')
+		return { ok: false, error: { message: 'The abc text is missing.' } };
 	const prepared = prepareLick(request.abc);
 	if (!prepared.ok) return prepared;
 	try {

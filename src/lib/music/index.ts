@@ -21,8 +21,22 @@ export { MAX_ABC_BYTES, tokenize, type AbcError, type Token } from './abc/tokeni
 export { parseAbc, type ParsedAbc } from './abc/parse';
 export { emitAbc } from './abc/emit';
 export { CYCLE_OF_FOURTHS, MAJOR_KEY_SPELLINGS, MINOR_KEY_SPELLINGS } from './key-data';
-export { jazzTonic, keyOf, parseKeyField, type KeySignature, type Mode, type TritoneSpelling } from './keys';
+export {
+	jazzTonic,
+	keyOf,
+	parseKeyField,
+	type KeySignature,
+	type Mode,
+	type TritoneSpelling
+} from './keys';
 export { parseChordSymbol, formatChordSymbol } from './chord-symbol';
 export { isQualityId } from './qualities';
 export { INSTRUMENT_IDS, INSTRUMENT_ROWS, isInstrumentId, type InstrumentId } from './instruments';
-export { QUALITY_IDS, type ChordContext, type KeyName, type MusicWarning, type QualityId, type SoundingNote } from './types';
+export {
+	QUALITY_IDS,
+	type ChordContext,
+	type KeyName,
+	type MusicWarning,
+	type QualityId,
+	type SoundingNote
+} from './types';

@@ -127,7 +127,8 @@ function altOf(text: string): number {
  * @example parseNoteName('Eb') // { letter: 2, alt: -1 }
  */
 export function parseNoteName(name: string): SpelledNote | null {
-	const text = name.length > 0 && (name[0] === ' ' || name[name.length - 1] === ' ') ? name.trim() : name;
+	const text =
+		name.length > 0 && (name[0] === ' ' || name[name.length - 1] === ' ') ? name.trim() : name;
 	if (text.length === 0) return null;
 	const letter = LETTER_INDEX[text[0].toUpperCase()];
 	if (letter === undefined) return null;
@@ -183,7 +184,6 @@ function abcLetterOf(letter: number, octave: number): string {
 const ABC_LETTERS: readonly string[] = Array.from({ length: 70 }, (_, i) =>
 	abcLetterOf(Math.floor(i / 10), i % 10)
 );
-
 
 /**
  * Transpose a spelled pitch by letter steps and semitones; the letter moves by `steps` and the

@@ -57,7 +57,10 @@ function spellingCost(letter: number, alt: number, accidentals: readonly number[
 	let cost = 0;
 	if (alt !== accidentals[letter]) {
 		cost += 1;
-		if ((alt === 1 && (letter === 2 || letter === 6)) || (alt === -1 && (letter === 0 || letter === 3)))
+		if (
+			(alt === 1 && (letter === 2 || letter === 6)) ||
+			(alt === -1 && (letter === 0 || letter === 3))
+		)
 			cost += 1;
 	}
 	if (alt >= 2 || alt <= -2) cost += 2;

@@ -14,7 +14,10 @@ import { MAJOR_KEY_SPELLINGS } from '../../../src/lib/music/key-data';
 import { QUALITY_IDS } from '../../../src/lib/music/types';
 
 const HEAD = 'X:1\nT:Lick\nM:4/4\nL:1/8\n';
-const variant = (abc: string, options: Parameters<typeof renderVariant>[1] = {}): VariantSuccess => {
+const variant = (
+	abc: string,
+	options: Parameters<typeof renderVariant>[1] = {}
+): VariantSuccess => {
 	const r = computeVariant({ abc, ...options });
 	if (!r.ok) throw new Error(r.error.message);
 	return r as VariantSuccess;
@@ -35,8 +38,7 @@ const abcjsNotes = (abc: string) => {
 
 /** An invented four-bar dominant lick (ours, written for these tests). */
 const LICK =
-	HEAD +
-	'K:Bb\n"Bb7"B,DFA _A=GFD | "Eb7"E2 (3GB_d c>B G2 | "Bb7"F^FGA B2 z2 | "F7"A,CE_G F4 |]\n';
+	HEAD + 'K:Bb\n"Bb7"B,DFA _A=GFD | "Eb7"E2 (3GB_d c>B G2 | "Bb7"F^FGA B2 z2 | "F7"A,CE_G F4 |]\n';
 
 describe('computeVariant', () => {
 	it('transposes "Bb7" up a tone to "C7" (REFERENCES.md §1, abc 2.1 §4.18)', () => {
@@ -88,7 +90,9 @@ describe('computeVariant', () => {
 		expect(b.warnings.map((w) => w.code)).toContain('key-respelled');
 		// B-flat tenor reads a major ninth up, guitar an octave up in treble-8, trombone in bass clef
 		expect(variant(HEAD + 'K:C\nC|\n', { instrument: 'tenor-sax' }).writtenKey).toBe('D');
-		expect(variant(HEAD + 'K:C\nC|\n', { instrument: 'guitar' }).writtenKey).toBe('C clef=treble-8');
+		expect(variant(HEAD + 'K:C\nC|\n', { instrument: 'guitar' }).writtenKey).toBe(
+			'C clef=treble-8'
+		);
 		expect(variant(HEAD + 'K:C\nC|\n', { instrument: 'trombone' }).writtenKey).toBe('C clef=bass');
 	});
 
@@ -142,11 +146,14 @@ describe('computeVariant', () => {
 		[{ quality: 'maj9' }, /not a chord quality/],
 		[{ instrument: 'kazoo' }, /not an instrument/],
 		[{ tritone: 'G' }, /tritone/]
-	])('answers an unknown key, quality, instrument or tritone spelling with a message (%j)', (options, message) => {
-		const r = computeVariant({ abc: LICK, ...(options as object) });
-		expect(r.ok).toBe(false);
-		if (!r.ok) expect(r.error.message).toMatch(message);
-	});
+	])(
+		'answers an unknown key, quality, instrument or tritone spelling with a message (%j)',
+		(options, message) => {
+			const r = computeVariant({ abc: LICK, ...(options as object) });
+			expect(r.ok).toBe(false);
+			if (!r.ok) expect(r.error.message).toMatch(message);
+		}
+	);
 
 	it('refuses to re-map a lick without chord symbols, saying why', () => {
 		const r = computeVariant({ abc: HEAD + 'K:C\nCEG|\n', quality: 'm7' });
@@ -156,7 +163,12 @@ describe('computeVariant', () => {
 
 describe('computeGrid', () => {
 	it('renders every key × quality from one parse', () => {
-		const grid = computeGrid(LICK, MAJOR_KEY_SPELLINGS, ['7', 'm7', 'maj7', 'm7b5', '7alt', 'dim7', '6', 'm6'], 'trumpet');
+		const grid = computeGrid(
+			LICK,
+			MAJOR_KEY_SPELLINGS,
+			['7', 'm7', 'maj7', 'm7b5', '7alt', 'dim7', '6', 'm6'],
+			'trumpet'
+		);
 		expect(grid.ok).toBe(true);
 		if (!grid.ok) return;
 		expect(grid.variants).toHaveLength(96);
@@ -173,7 +185,31 @@ describe('computeGrid', () => {
 
 // ---- property tests -----------------------------------------------------------------------
 
-const KEY_FIELDS = ['C', 'G', 'D', 'A', 'E', 'B', 'F#', 'F', 'Bb', 'Eb', 'Ab', 'Db', 'Gb', 'Am', 'Em', 'Dm', 'Gm', 'Cm', 'F#m', 'Dmix', 'Ador', 'Bbmix', 'Edor'];
+const KEY_FIELDS = [
+	'C',
+	'G',
+	'D',
+	'A',
+	'E',
+	'B',
+	'F#',
+	'F',
+	'Bb',
+	'Eb',
+	'Ab',
+	'Db',
+	'Gb',
+	'Am',
+	'Em',
+	'Dm',
+	'Gm',
+	'Cm',
+	'F#m',
+	'Dmix',
+	'Ador',
+	'Bbmix',
+	'Edor'
+];
 const ROOTS = ['C', 'Db', 'D', 'Eb', 'E', 'F', 'F#', 'G', 'Ab', 'A', 'Bb', 'B'];
 const SUFFIXES = ['7', 'm7', 'maj7', 'm7b5', '7alt', 'o7', '6', 'm6', '7(#11)', '7b9', '9', 'm9'];
 
@@ -186,11 +222,20 @@ const noteText = fc
 	})
 	.map(({ acc, letter, oct, len }) => {
 		// keep within about three octaves: no ' on low letters' octave below, no , on high letters
-		const o = oct === "'" && letter === letter.toUpperCase() ? '' : oct === ',' && letter !== letter.toUpperCase() ? '' : oct;
+		const o =
+			oct === "'" && letter === letter.toUpperCase()
+				? ''
+				: oct === ',' && letter !== letter.toUpperCase()
+					? ''
+					: oct;
 		return { pitch: acc + letter + o, len };
 	});
 const chordText = fc
-	.record({ root: fc.constantFrom(...ROOTS), suffix: fc.constantFrom(...SUFFIXES), slash: fc.constantFrom('', '', '', '/E', '/Bb') })
+	.record({
+		root: fc.constantFrom(...ROOTS),
+		suffix: fc.constantFrom(...SUFFIXES),
+		slash: fc.constantFrom('', '', '', '/E', '/Bb')
+	})
 	.map(({ root, suffix, slash }) => `"${root}${suffix}${slash}"`);
 
 const item = (rich: boolean) =>
@@ -202,14 +247,22 @@ const item = (rich: boolean) =>
 		{ weight: 1, arbitrary: fc.tuple(noteText, noteText).map(([a, b]) => `${a.pitch}>${b.pitch}`) },
 		{
 			weight: 1,
-			arbitrary: fc.tuple(noteText, noteText, noteText).map(([a, b, c]) => `(3${a.pitch}${b.pitch}${c.pitch}`)
+			arbitrary: fc
+				.tuple(noteText, noteText, noteText)
+				.map(([a, b, c]) => `(3${a.pitch}${b.pitch}${c.pitch}`)
 		},
 		// a tie to the same note text in the same bar always joins the same pitch
 		{ weight: 1, arbitrary: noteText.map((n) => `${n.pitch}2-${n.pitch.replace(/^[_^=]+/, '')}2`) },
 		...(rich
 			? [
-					{ weight: 1, arbitrary: fc.tuple(noteText, noteText).map(([g, n]) => `{${g.pitch}}${n.pitch}`) },
-					{ weight: 1, arbitrary: fc.tuple(noteText, noteText).map(([a, b]) => `[${a.pitch}${b.pitch}]2`) },
+					{
+						weight: 1,
+						arbitrary: fc.tuple(noteText, noteText).map(([g, n]) => `{${g.pitch}}${n.pitch}`)
+					},
+					{
+						weight: 1,
+						arbitrary: fc.tuple(noteText, noteText).map(([a, b]) => `[${a.pitch}${b.pitch}]2`)
+					},
 					{ weight: 1, arbitrary: fc.constantFrom('!trill!', '.', '~', '"^solo"', '% note\n') }
 				]
 			: [])
@@ -240,25 +293,31 @@ describe('properties of the twelve-key transposition', () => {
 				for (const to of MAJOR_KEY_SPELLINGS) {
 					const v = variant(abc, { to });
 					const again = reparse(v.abc);
-					const shift = constant(again.notes.map((n) => n.midi), source.notes.map((n) => n.midi));
+					const shift = constant(
+						again.notes.map((n) => n.midi),
+						source.notes.map((n) => n.midi)
+					);
 					expect(Math.abs(shift)).toBeLessThanOrEqual(6);
 					expect(again.notes.map((n) => n.midi)).toEqual(v.notes.map((n) => n.midi));
 					expect(again.notes.map((n) => n.pitch)).toEqual(v.notes.map((n) => n.pitch));
-					expect(again.notes.map((n) => [n.start, n.duration])).toEqual(source.notes.map((n) => [n.start, n.duration]));
+					expect(again.notes.map((n) => [n.start, n.duration])).toEqual(
+						source.notes.map((n) => [n.start, n.duration])
+					);
 					expect(v.notes.map((n) => n.degree)).toEqual(own.notes.map((n) => n.degree));
 					// chord symbols move by the same interval (tonal 6.5.1 Interval.semitones of their roots)
 					v.notes.forEach((n, i) => {
 						const before = own.notes[i].chord;
 						if (!n.chord || !before) return;
 						const moved = Interval.semitones(Interval.distance(before.root, n.chord.root)) ?? NaN;
-						expect(((moved - shift) % 12 + 12) % 12).toBe(0);
+						expect((((moved - shift) % 12) + 12) % 12).toBe(0);
 					});
 					// the output reads the same under %%propagate-accidentals octave (abc 2.1 §11.3)
-					expect(reparse(v.abc, '%%propagate-accidentals octave\n').notes.map((n) => n.midi)).toEqual(
-						again.notes.map((n) => n.midi)
-					);
+					expect(
+						reparse(v.abc, '%%propagate-accidentals octave\n').notes.map((n) => n.midi)
+					).toEqual(again.notes.map((n) => n.midi));
 					// grace notes move with the rest
-					const graces = (t: ReturnType<typeof reparse>) => t.heads.filter((h) => h.grace).map((h) => h.midi);
+					const graces = (t: ReturnType<typeof reparse>) =>
+						t.heads.filter((h) => h.grace).map((h) => h.midi);
 					const g = graces(again);
 					graces(source).forEach((m, i) => expect(g[i] - m).toBe(shift));
 				}
@@ -288,7 +347,10 @@ describe('properties of the twelve-key transposition', () => {
 			fc.property(lickArb(true), fc.constantFrom(...MAJOR_KEY_SPELLINGS), (abc, to) => {
 				const source = reparse(abc);
 				const home = source.keys[0].key;
-				const homeName = (home.none ? 'C' : 'CDEFGAB'[home.tonic.letter] + (home.tonic.alt > 0 ? '#' : home.tonic.alt < 0 ? 'b' : ''));
+				const homeName = home.none
+					? 'C'
+					: 'CDEFGAB'[home.tonic.letter] +
+						(home.tonic.alt > 0 ? '#' : home.tonic.alt < 0 ? 'b' : '');
 				const there = variant(abc, { to });
 				const back = variant(there.abc, { to: homeName });
 				expect(back.notes.map((n) => n.midi)).toEqual(source.notes.map((n) => n.midi));
@@ -306,7 +368,10 @@ describe('properties of the twelve-key transposition', () => {
 				for (const to of MAJOR_KEY_SPELLINGS) {
 					const v = renderVariant(prepared.lick, { quality, to });
 					expect(v.notes.map((n) => n.degree)).toEqual(base.notes.map((n) => n.degree));
-					constant(v.notes.map((n) => n.midi), base.notes.map((n) => n.midi));
+					constant(
+						v.notes.map((n) => n.midi),
+						base.notes.map((n) => n.midi)
+					);
 					expect(reparse(v.abc).notes.map((n) => n.midi)).toEqual(v.notes.map((n) => n.midi));
 				}
 			}),

@@ -9,7 +9,11 @@ import {
 	twelveKeys,
 	type KeySignature
 } from '../../../src/lib/music/keys';
-import { CYCLE_OF_FOURTHS, MAJOR_KEY_SPELLINGS, MINOR_KEY_SPELLINGS } from '../../../src/lib/music/key-data';
+import {
+	CYCLE_OF_FOURTHS,
+	MAJOR_KEY_SPELLINGS,
+	MINOR_KEY_SPELLINGS
+} from '../../../src/lib/music/key-data';
 import { formatNoteName } from '../../../src/lib/music/pitch';
 
 const ok = (value: string): KeySignature => {
@@ -27,14 +31,33 @@ const named = (alts: number[]): string =>
 
 describe('key signatures', () => {
 	it('match the circle of fifths for every major and minor key (tonal 6.5.1 Key.majorKey/minorKey .alteration)', () => {
-		const majors = ['C', 'G', 'D', 'A', 'E', 'B', 'F#', 'C#', 'F', 'Bb', 'Eb', 'Ab', 'Db', 'Gb', 'Cb'];
+		const majors = [
+			'C',
+			'G',
+			'D',
+			'A',
+			'E',
+			'B',
+			'F#',
+			'C#',
+			'F',
+			'Bb',
+			'Eb',
+			'Ab',
+			'Db',
+			'Gb',
+			'Cb'
+		];
 		for (const k of majors) {
 			// reference: tonal 6.5.1 Key.majorKey(k).alteration
 			expect(keyOf(k, 'major').fifths, k).toBe(Key.majorKey(k).alteration);
 			// reference: tonal 6.5.1 Key.majorKey(k).keySignature lists the same accidentals
 			const sig = Key.majorKey(k).keySignature;
 			const count = sig.length;
-			expect(keyOf(k).accidentals.reduce((a, b) => a + Math.abs(b), 0), k).toBe(count);
+			expect(
+				keyOf(k).accidentals.reduce((a, b) => a + Math.abs(b), 0),
+				k
+			).toBe(count);
 		}
 		const minors = ['A', 'E', 'B', 'F#', 'C#', 'G#', 'D#', 'Eb', 'Bb', 'F', 'C', 'G', 'D'];
 		for (const k of minors) {
@@ -119,13 +142,29 @@ describe('key signatures', () => {
 	it('spells other modes with the fewest accidentals', () => {
 		for (const mode of ['dorian', 'mixolydian', 'lydian', 'phrygian', 'locrian'] as const) {
 			for (let pc = 0; pc < 12; pc++) {
-				expect(Math.abs(keyOf(jazzTonic(pc, mode), mode).fifths), `${mode} ${pc}`).toBeLessThanOrEqual(6);
+				expect(
+					Math.abs(keyOf(jazzTonic(pc, mode), mode).fifths),
+					`${mode} ${pc}`
+				).toBeLessThanOrEqual(6);
 			}
 		}
 	});
 
 	it('lists twelve drill keys per mode and tritone setting', () => {
-		expect(twelveKeys('major', 'F#')).toEqual(['C', 'Db', 'D', 'Eb', 'E', 'F', 'F#', 'G', 'Ab', 'A', 'Bb', 'B']);
+		expect(twelveKeys('major', 'F#')).toEqual([
+			'C',
+			'Db',
+			'D',
+			'Eb',
+			'E',
+			'F',
+			'F#',
+			'G',
+			'Ab',
+			'A',
+			'Bb',
+			'B'
+		]);
 		expect(twelveKeys('minor')).toEqual([...MINOR_KEY_SPELLINGS]);
 	});
 

@@ -39,7 +39,8 @@ describe('pitch', () => {
 	});
 
 	it('rejects garbage pitch names', () => {
-		for (const bad of ['', 'C', '4', 'X4', 'C#', 'C4.5']) expect(parsePitchName(bad), bad).toBeNull();
+		for (const bad of ['', 'C', '4', 'X4', 'C#', 'C4.5'])
+			expect(parsePitchName(bad), bad).toBeNull();
 	});
 
 	it('writes abc letters with octave marks as abc 2.1 §4.1 and tonal AbcNotation do', () => {
@@ -55,11 +56,31 @@ describe('pitch', () => {
 	});
 
 	it('transposes by interval exactly as tonal Note.transpose does', () => {
-		const intervals = ['1P', '2M', '2m', '3M', '3m', '4P', '4A', '5d', '5P', '6M', '6m', '7M', '7m', '-2M', '-3m', '-4P', '-5d', '8P', '-8P'];
+		const intervals = [
+			'1P',
+			'2M',
+			'2m',
+			'3M',
+			'3m',
+			'4P',
+			'4A',
+			'5d',
+			'5P',
+			'6M',
+			'6m',
+			'7M',
+			'7m',
+			'-2M',
+			'-3m',
+			'-4P',
+			'-5d',
+			'8P',
+			'-8P'
+		];
 		for (const name of ['C4', 'Bb3', 'F#4', 'Eb5', 'B4', 'Gb4']) {
 			for (const iv of intervals) {
 				const i = Interval.get(iv);
-				const steps = (i.num - Math.sign(i.num)) || 0;
+				const steps = i.num - Math.sign(i.num) || 0;
 				const by = { steps: i.dir < 0 ? -Math.abs(steps) : steps, semitones: i.semitones };
 				// reference: tonal 6.5.1 Note.transpose
 				expect(formatPitch(transposePitch(parsePitchName(name)!, by)), `${name} + ${iv}`).toBe(

@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { Interval, Note } from 'tonal';
 import { formatKeyField, keyOf, parseKeyField } from '../../../src/lib/music/keys';
-import { formatNoteName, formatPitch, intervalName, parseNoteName, parsePitchName } from '../../../src/lib/music/pitch';
+import {
+	formatNoteName,
+	formatPitch,
+	intervalName,
+	parseNoteName,
+	parsePitchName
+} from '../../../src/lib/music/pitch';
 import {
 	intervalToKey,
 	jazzKey,

@@ -7,7 +7,13 @@
  * otherwise sound a different pitch, which is also the fewest accidentals both readings accept.
  */
 import { formatKeyField, type KeySignature } from '../keys';
-import { abcLetter, formatNoteName, type SpelledNote, type SpelledPitch, type Steps } from '../pitch';
+import {
+	abcLetter,
+	formatNoteName,
+	type SpelledNote,
+	type SpelledPitch,
+	type Steps
+} from '../pitch';
 import { simplifyNoteName } from '../spelling';
 import { transposeNoteName } from '../transpose';
 import type { ParsedAbc } from './parse';
@@ -133,7 +139,12 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 				}
 				// An unchanged note keeps its own text (`b,,` stays `b,,`, not `B,`).
 				const q = head.pitch;
-				if (acc === t.accidental && q.letter === p.letter && q.alt === p.alt && q.octave === p.octave) {
+				if (
+					acc === t.accidental &&
+					q.letter === p.letter &&
+					q.alt === p.alt &&
+					q.octave === p.octave
+				) {
 					out += t.text;
 				} else out += acc + abcLetter(p) + (t.length as string);
 				break;

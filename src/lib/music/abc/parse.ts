@@ -194,14 +194,20 @@ function readTokens(
 				}
 				if (name === 'M') {
 					if (meterLength(value) === undefined) {
-						return fail(`“M:${value.trim()}” is not a meter; write it as M:4/4, M:6/8, M:C or M:none.`, t);
+						return fail(
+							`“M:${value.trim()}” is not a meter; write it as M:4/4, M:6/8, M:C or M:none.`,
+							t
+						);
 					}
 					meter = value.trim();
 					if (!inBody) headerMeter = meter;
 				} else if (name === 'L') {
 					const m = /^\s*(\d+)\s*(?:\/\s*(\d+))?\s*$/.exec(value);
 					if (!m || Number(m[1]) === 0 || (m[2] !== undefined && Number(m[2]) === 0)) {
-						return fail(`“L:${value.trim()}” is not a note length; write it as L:1/8 or L:1/16.`, t);
+						return fail(
+							`“L:${value.trim()}” is not a note length; write it as L:1/8 or L:1/16.`,
+							t
+						);
 					}
 					const len = Number(m[1]) / (m[2] === undefined ? 1 : Number(m[2]));
 					if (inBody) unitLength = len;
@@ -336,7 +342,8 @@ function readTokens(
 					if (mult === null) return fail(`“${t.length}” is not a rest length.`, t);
 					base = unitLength * mult;
 				}
-				if (!inGrace) addElement({ heads: [], base, factor: 1, chord: chordIndex, ties: [], rest: true });
+				if (!inGrace)
+					addElement({ heads: [], base, factor: 1, chord: chordIndex, ties: [], rest: true });
 				break;
 			}
 			case 'tuplet': {
@@ -362,7 +369,10 @@ function readTokens(
 		}
 	}
 	if (!sawKey) {
-		const at = tokens.find((t) => t.kind !== 'blank' && t.kind !== 'newline') ?? { line: 1, column: 1 };
+		const at = tokens.find((t) => t.kind !== 'blank' && t.kind !== 'newline') ?? {
+			line: 1,
+			column: 1
+		};
 		return fail(
 			'No K: line found: a lick needs a header that ends with a key, for example X:1, T:My lick, M:4/4, L:1/8, K:C, and then the notes.',
 			at

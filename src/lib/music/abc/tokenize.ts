@@ -241,10 +241,7 @@ function tokenizeMusicLine(
 				i++;
 				continue;
 			}
-			return err(
-				'A backslash \\ may only end a music line (to continue it on the next line).',
-				i
-			);
+			return err('A backslash \\ may only end a music line (to continue it on the next line).', i);
 		}
 		if (c === '"') {
 			const close = line.indexOf('"', i + 1);
@@ -300,7 +297,10 @@ function tokenizeMusicLine(
 				}
 			}
 			if (chordOpen !== null) {
-				return err('A chord cannot start inside another chord: close the first one with ] before this [.', i);
+				return err(
+					'A chord cannot start inside another chord: close the first one with ] before this [.',
+					i
+				);
 			}
 			chordOpen = i;
 			push('chord-open', i, i + 1);
@@ -342,7 +342,10 @@ function tokenizeMusicLine(
 			continue;
 		}
 		if (c === '^' || c === '_' || c === '=') {
-			return err(`The accidental ${c} must stand right before a note letter (A to G or a to g).`, i);
+			return err(
+				`The accidental ${c} must stand right before a note letter (A to G or a to g).`,
+				i
+			);
 		}
 		if (chordOpen !== null && c !== '-') {
 			return err(
@@ -366,7 +369,10 @@ function tokenizeMusicLine(
 			if (t) {
 				const p = Number(t[1]);
 				if (p < 2 || p > 9) {
-					return err(`A tuplet (${p} is not possible: write (2 to (9, for example (3 for triplets.`, i);
+					return err(
+						`A tuplet (${p} is not possible: write (2 to (9, for example (3 for triplets.`,
+						i
+					);
 				}
 				push('tuplet', i, i + t[0].length, {
 					tuplet: [p, Number(t[2] || 0), Number(t[3] || 0)]
@@ -384,7 +390,8 @@ function tokenizeMusicLine(
 			continue;
 		}
 		if (c === '{') {
-			if (graceOpen !== null) return err('Grace notes cannot be nested: close the first { with }.', i);
+			if (graceOpen !== null)
+				return err('Grace notes cannot be nested: close the first { with }.', i);
 			graceOpen = i;
 			const to = line[i + 1] === '/' ? i + 2 : i + 1;
 			push('grace-open', i, to);
@@ -392,7 +399,8 @@ function tokenizeMusicLine(
 			continue;
 		}
 		if (c === '}') {
-			if (graceOpen === null) return err('This } closes no grace notes: there is no { before it.', i);
+			if (graceOpen === null)
+				return err('This } closes no grace notes: there is no { before it.', i);
 			graceOpen = null;
 			push('grace-close', i, i + 1);
 			i++;
@@ -444,7 +452,10 @@ function tokenizeMusicLine(
 			return err('Voice overlay (&) is not supported in a lick; write one melodic line.', i);
 		}
 		if (/\d|\//.test(c)) {
-			return err(`The length “${c}” has no note before it; a length follows its note, as in C2 or C/2.`, i);
+			return err(
+				`The length “${c}” has no note before it; a length follows its note, as in C2 or C/2.`,
+				i
+			);
 		}
 		if (c === "'" || c === ',') {
 			return err(`The octave mark ${c} must follow a note letter, as in c' or C,.`, i);
@@ -452,10 +463,16 @@ function tokenizeMusicLine(
 		return err(`Unexpected character “${c}” in the music.`, i);
 	}
 	if (chordOpen !== null) {
-		return err('This chord [ is never closed: add ] after its last note, on the same line.', chordOpen);
+		return err(
+			'This chord [ is never closed: add ] after its last note, on the same line.',
+			chordOpen
+		);
 	}
 	if (graceOpen !== null) {
-		return err('These grace notes { are never closed: add } after the last one, on the same line.', graceOpen);
+		return err(
+			'These grace notes { are never closed: add } after the last one, on the same line.',
+			graceOpen
+		);
 	}
 	return null;
 }

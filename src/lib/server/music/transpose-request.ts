@@ -43,12 +43,20 @@ const FIELDS = ['abc', 'to', 'quality', 'instrument', 'tritone'];
  */
 export function readTransposeInput(body: unknown): TransposeInput {
 	if (!body || typeof body !== 'object' || Array.isArray(body)) {
-		return { ok: false, status: 400, message: 'The body must be a JSON object such as {"abc": "X:1\\nK:C\\nCDEF|"}.' };
+		return {
+			ok: false,
+			status: 400,
+			message: 'The body must be a JSON object such as {"abc": "X:1\\nK:C\\nCDEF|"}.'
+		};
 	}
 	const value = body as Record<string, unknown>;
 	const unknown = Object.keys(value).filter((k) => !FIELDS.includes(k));
 	if (unknown.length) {
-		return { ok: false, status: 400, message: `Unknown field ${unknown.map((k) => `“${k}”`).join(', ')}: send abc, to, quality, instrument or tritone.` };
+		return {
+			ok: false,
+			status: 400,
+			message: `Unknown field ${unknown.map((k) => `“${k}”`).join(', ')}: send abc, to, quality, instrument or tritone.`
+		};
 	}
 	const { abc, to, quality, instrument, tritone } = value;
 	if (typeof abc !== 'string' || abc.trim() === '') {
@@ -71,19 +79,31 @@ export function readTransposeInput(body: unknown): TransposeInput {
 	}
 	if (typeof quality === 'string' && quality !== '') {
 		if (!isQualityId(quality)) {
-			return { ok: false, status: 422, message: `“${quality}” is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.` };
+			return {
+				ok: false,
+				status: 422,
+				message: `“${quality}” is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.`
+			};
 		}
 		options.quality = quality;
 	}
 	if (typeof instrument === 'string' && instrument !== '') {
 		if (!isInstrumentId(instrument)) {
-			return { ok: false, status: 422, message: `“${instrument}” is not an instrument: use one of ${INSTRUMENT_IDS.join(', ')}.` };
+			return {
+				ok: false,
+				status: 422,
+				message: `“${instrument}” is not an instrument: use one of ${INSTRUMENT_IDS.join(', ')}.`
+			};
 		}
 		options.instrument = instrument;
 	}
 	if (typeof tritone === 'string' && tritone !== '') {
 		if (tritone !== 'Gb' && tritone !== 'F#') {
-			return { ok: false, status: 422, message: `“${tritone}” is not a tritone spelling: use Gb or F#.` };
+			return {
+				ok: false,
+				status: 422,
+				message: `“${tritone}” is not a tritone spelling: use Gb or F#.`
+			};
 		}
 		options.tritone = tritone;
 	}

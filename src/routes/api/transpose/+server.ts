@@ -7,8 +7,11 @@ import {
 } from '$lib/server/music/transpose-request';
 import type { RequestHandler } from './$types';
 
-const fail = (status: number, error: { message: string; line?: number; column?: number }, headers?: HeadersInit) =>
-	json({ error }, { status, headers });
+const fail = (
+	status: number,
+	error: { message: string; line?: number; column?: number },
+	headers?: HeadersInit
+) => json({ error }, { status, headers });
 
 /**
  * `POST /api/transpose` `{ abc, to?, quality?, instrument?, tritone? }` → 200
@@ -58,7 +61,10 @@ export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 	}
 	if (!result.ok) return fail(422, result.error);
 	const { abc, key, writtenKey, quality, instrument, warnings, notes, devices } = result;
-	return json({ abc, key, writtenKey, quality, instrument, warnings, notes, devices }, { status: 200 });
+	return json(
+		{ abc, key, writtenKey, quality, instrument, warnings, notes, devices },
+		{ status: 200 }
+	);
 };
 
 function tooLarge(): Response {

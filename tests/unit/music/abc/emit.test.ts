@@ -23,7 +23,11 @@ const variant = (abc: string, to?: string) => {
 	if (!r.ok) throw new Error(r.error.message);
 	return r;
 };
-const body = (abc: string) => abc.split('\n').filter((l) => !/^[A-Za-z]:/.test(l) && l !== '').join('\n');
+const body = (abc: string) =>
+	abc
+		.split('\n')
+		.filter((l) => !/^[A-Za-z]:/.test(l) && l !== '')
+		.join('\n');
 const HEAD = 'X:1\nT:Lick\nM:4/4\nL:1/8\n';
 const midisUnder = (abc: string, mode: 'pitch' | 'octave') =>
 	parse(`%%propagate-accidentals ${mode}\n` + abc).notes.map((n) => n.midi);
@@ -94,7 +98,9 @@ describe('abc emitter', () => {
 		['(F7)', '(G7)', 'C'],
 		['Db7', 'Eb7', 'C']
 	])('transposes the chord symbol "%s" up a tone to "%s" in %s', (symbol, expected, key) => {
-		expect(transposeChordSymbol(symbol, { steps: 1, semitones: 2 }, keyOf(key).accidentals)).toBe(expected);
+		expect(transposeChordSymbol(symbol, { steps: 1, semitones: 2 }, keyOf(key).accidentals)).toBe(
+			expected
+		);
 	});
 
 	it('spells chord symbols to match the key', () => {

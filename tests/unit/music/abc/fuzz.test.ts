@@ -11,7 +11,9 @@ const SEEDS = [
 	'X:1\nM:C\nL:1/16\nK:F#mix clef=bass\n"F#7"F,2A,2 C4 | (3:2:2EF "^solo"G8 |]\n'
 ];
 /** Characters that mean something in abc, and a few that do not. */
-const ALPHABET = [...'ABCDEFGabcdefgzxZ^_=,\'/23456789|:[]{}()"!+-<>.~%\\ \n\tKLMQXT&#*;?@$`y€é\u0000'];
+const ALPHABET = [
+	...'ABCDEFGabcdefgzxZ^_=,\'/23456789|:[]{}()"!+-<>.~%\\ \n\tKLMQXT&#*;?@$`y€é\u0000'
+];
 
 const mutated = fc
 	.record({
@@ -40,7 +42,11 @@ describe('fuzzing the abc reader', () => {
 		let errors = 0;
 		fc.assert(
 			fc.property(
-				fc.oneof({ weight: 3, arbitrary: mutated }, { weight: 1, arbitrary: noise }, { weight: 2, arbitrary: headed }),
+				fc.oneof(
+					{ weight: 3, arbitrary: mutated },
+					{ weight: 1, arbitrary: noise },
+					{ weight: 2, arbitrary: headed }
+				),
 				fc.option(fc.constantFrom('C', 'Eb', 'F#', 'Gb', 'B', 'A#', 'H', '')),
 				fc.option(fc.constantFrom(...QUALITY_IDS)),
 				fc.option(fc.constantFrom(...INSTRUMENT_IDS)),

@@ -25,7 +25,7 @@ const errorOf = (text: string) => {
 
 describe('abc parser', () => {
 	it('reads octaves as abc 2.1 §4.1 and tonal AbcNotation do', () => {
-		const abc = ["C,", 'C', 'c', "c'", '_B,', '^f', "=e''"];
+		const abc = ['C,', 'C', 'c', "c'", '_B,', '^f', "=e''"];
 		for (const a of abc) {
 			const [p] = pitches(a);
 			// reference: tonal 6.5.1 AbcNotation.abcToScientificNotation
@@ -138,7 +138,13 @@ describe('abc parser', () => {
 
 	it('gives each note the chord symbol in force, and annotations are not chords (abc 2.1 §4.18, §4.19)', () => {
 		const t = tune(head() + 'C "Bb7#11/D"D "^solo"E "Am7"F G\n');
-		expect(t.notes.map((n) => n.chord?.symbol ?? null)).toEqual([null, 'Bb7#11/D', 'Bb7#11/D', 'Am7', 'Am7']);
+		expect(t.notes.map((n) => n.chord?.symbol ?? null)).toEqual([
+			null,
+			'Bb7#11/D',
+			'Bb7#11/D',
+			'Am7',
+			'Am7'
+		]);
 		expect(t.notes[1].chord).toMatchObject({ root: 'Bb', quality: '7', bass: 'D' });
 	});
 
@@ -165,7 +171,15 @@ describe('abc parser', () => {
 	});
 
 	it('keeps decorations, slurs and repeats out of the pitches', () => {
-		expect(pitches('|: !trill!c .d ~e (fg) :|1 a :|2 b |]')).toEqual(['C5', 'D5', 'E5', 'F5', 'G5', 'A5', 'B5']);
+		expect(pitches('|: !trill!c .d ~e (fg) :|1 a :|2 b |]')).toEqual([
+			'C5',
+			'D5',
+			'E5',
+			'F5',
+			'G5',
+			'A5',
+			'B5'
+		]);
 	});
 
 	it.each([
@@ -192,7 +206,9 @@ describe('abc parser', () => {
 		const ours = tune(text).notes.map((n) => [n.midi, n.start, n.duration]);
 		// reference: abcjs 6.7.2 parseOnly(...)[0].setUpAudio() (melody track)
 		const audio = abcjs.parseOnly(text)[0].setUpAudio();
-		const theirs = (audio.tracks[0] as { cmd: string; pitch: number; start: number; duration: number }[])
+		const theirs = (
+			audio.tracks[0] as { cmd: string; pitch: number; start: number; duration: number }[]
+		)
 			.filter((e) => e.cmd === 'note')
 			.map((e) => [e.pitch, e.start, e.duration]);
 		expect(ours.length).toBe(theirs.length);

@@ -25,32 +25,204 @@ describe('abc tokenizer', () => {
 
 	it.each([
 		['^c', [['note', '^c']]],
-		["__B,,3/2", [['note', '__B,,3/2']]],
+		['__B,,3/2', [['note', '__B,,3/2']]],
 		['=f//', [['note', '=f//']]],
-		['z2 x/ Z4', [['rest', 'z2'], ['space', ' '], ['rest', 'x/'], ['space', ' '], ['rest', 'Z4']]],
-		['a>b', [['note', 'a'], ['broken-rhythm', '>'], ['note', 'b']]],
-		['a<<b', [['note', 'a'], ['broken-rhythm', '<<'], ['note', 'b']]],
-		['c4-c', [['note', 'c4'], ['tie', '-'], ['note', 'c']]],
-		['(3cde', [['tuplet', '(3'], ['note', 'c'], ['note', 'd'], ['note', 'e']]],
-		['(3:2:4c', [['tuplet', '(3:2:4'], ['note', 'c']]],
-		['(cd)', [['slur-open', '('], ['note', 'c'], ['note', 'd'], ['slur-close', ')']]],
-		['{/g}a', [['grace-open', '{/'], ['note', 'g'], ['grace-close', '}'], ['note', 'a']]],
-		['!trill!c', [['decoration', '!trill!'], ['note', 'c']]],
-		['+fermata+c', [['decoration', '+fermata+'], ['note', 'c']]],
-		['.~Tc', [['decoration', '.'], ['decoration', '~'], ['decoration', 'T'], ['note', 'c']]],
-		['[CEG]2', [['chord-open', '['], ['note', 'C'], ['note', 'E'], ['note', 'G'], ['chord-close', ']2']]],
-		['"Am7"A', [['chord-symbol', '"Am7"'], ['note', 'A']]],
-		['"^solo"A', [['annotation', '"^solo"'], ['note', 'A']]],
-		['"_below"A', [['annotation', '"_below"'], ['note', 'A']]],
-		['[K:G]a', [['inline-field', '[K:G]'], ['note', 'a']]],
-		['|:a:|', [['bar', '|:'], ['note', 'a'], ['bar', ':|']]],
-		['a||b|]', [['note', 'a'], ['bar', '||'], ['note', 'b'], ['bar', '|]']]],
-		['[|a::b', [['bar', '[|'], ['note', 'a'], ['bar', '::'], ['note', 'b']]],
-		['|1a:|2b', [['bar', '|1'], ['note', 'a'], ['bar', ':|2'], ['note', 'b']]],
-		['[1a', [['bar', '[1'], ['note', 'a']]],
-		['a % note', [['note', 'a'], ['space', ' '], ['comment', '% note']]],
-		['a \\', [['note', 'a'], ['space', ' '], ['continuation', '\\']]],
-		['y`$a', [['ignored', 'y'], ['ignored', '`'], ['ignored', '$'], ['note', 'a']]]
+		[
+			'z2 x/ Z4',
+			[
+				['rest', 'z2'],
+				['space', ' '],
+				['rest', 'x/'],
+				['space', ' '],
+				['rest', 'Z4']
+			]
+		],
+		[
+			'a>b',
+			[
+				['note', 'a'],
+				['broken-rhythm', '>'],
+				['note', 'b']
+			]
+		],
+		[
+			'a<<b',
+			[
+				['note', 'a'],
+				['broken-rhythm', '<<'],
+				['note', 'b']
+			]
+		],
+		[
+			'c4-c',
+			[
+				['note', 'c4'],
+				['tie', '-'],
+				['note', 'c']
+			]
+		],
+		[
+			'(3cde',
+			[
+				['tuplet', '(3'],
+				['note', 'c'],
+				['note', 'd'],
+				['note', 'e']
+			]
+		],
+		[
+			'(3:2:4c',
+			[
+				['tuplet', '(3:2:4'],
+				['note', 'c']
+			]
+		],
+		[
+			'(cd)',
+			[
+				['slur-open', '('],
+				['note', 'c'],
+				['note', 'd'],
+				['slur-close', ')']
+			]
+		],
+		[
+			'{/g}a',
+			[
+				['grace-open', '{/'],
+				['note', 'g'],
+				['grace-close', '}'],
+				['note', 'a']
+			]
+		],
+		[
+			'!trill!c',
+			[
+				['decoration', '!trill!'],
+				['note', 'c']
+			]
+		],
+		[
+			'+fermata+c',
+			[
+				['decoration', '+fermata+'],
+				['note', 'c']
+			]
+		],
+		[
+			'.~Tc',
+			[
+				['decoration', '.'],
+				['decoration', '~'],
+				['decoration', 'T'],
+				['note', 'c']
+			]
+		],
+		[
+			'[CEG]2',
+			[
+				['chord-open', '['],
+				['note', 'C'],
+				['note', 'E'],
+				['note', 'G'],
+				['chord-close', ']2']
+			]
+		],
+		[
+			'"Am7"A',
+			[
+				['chord-symbol', '"Am7"'],
+				['note', 'A']
+			]
+		],
+		[
+			'"^solo"A',
+			[
+				['annotation', '"^solo"'],
+				['note', 'A']
+			]
+		],
+		[
+			'"_below"A',
+			[
+				['annotation', '"_below"'],
+				['note', 'A']
+			]
+		],
+		[
+			'[K:G]a',
+			[
+				['inline-field', '[K:G]'],
+				['note', 'a']
+			]
+		],
+		[
+			'|:a:|',
+			[
+				['bar', '|:'],
+				['note', 'a'],
+				['bar', ':|']
+			]
+		],
+		[
+			'a||b|]',
+			[
+				['note', 'a'],
+				['bar', '||'],
+				['note', 'b'],
+				['bar', '|]']
+			]
+		],
+		[
+			'[|a::b',
+			[
+				['bar', '[|'],
+				['note', 'a'],
+				['bar', '::'],
+				['note', 'b']
+			]
+		],
+		[
+			'|1a:|2b',
+			[
+				['bar', '|1'],
+				['note', 'a'],
+				['bar', ':|2'],
+				['note', 'b']
+			]
+		],
+		[
+			'[1a',
+			[
+				['bar', '[1'],
+				['note', 'a']
+			]
+		],
+		[
+			'a % note',
+			[
+				['note', 'a'],
+				['space', ' '],
+				['comment', '% note']
+			]
+		],
+		[
+			'a \\',
+			[
+				['note', 'a'],
+				['space', ' '],
+				['continuation', '\\']
+			]
+		],
+		[
+			'y`$a',
+			[
+				['ignored', 'y'],
+				['ignored', '`'],
+				['ignored', '$'],
+				['note', 'a']
+			]
+		]
 	])('reads %j', (music, expected) => {
 		expect(kinds(music)).toEqual(expected);
 	});
@@ -63,7 +235,14 @@ describe('abc tokenizer', () => {
 
 	it('gives note parts and positions', () => {
 		const note = body("  _b'3/2").find((t) => t.kind === 'note');
-		expect(note).toMatchObject({ accidental: '_', letter: 'b', octave: "'", length: '3/2', line: 6, column: 3 });
+		expect(note).toMatchObject({
+			accidental: '_',
+			letter: 'b',
+			octave: "'",
+			length: '3/2',
+			line: 6,
+			column: 3
+		});
 	});
 
 	it('warns about reserved characters and unknown decoration letters but goes on (abc 2.1 §8.1, §4.16)', () => {
@@ -74,7 +253,9 @@ describe('abc tokenizer', () => {
 
 	it('warns when an empty line cuts the music off (abc 2.1 §2.2: an empty line ends the tune)', () => {
 		const r = tokenize(HEAD + 'ab\n\ncd\n');
-		expect(r.ok && r.warnings.map((w) => [w.line, w.message.includes('empty line')])).toEqual([[8, true]]);
+		expect(r.ok && r.warnings.map((w) => [w.line, w.message.includes('empty line')])).toEqual([
+			[8, true]
+		]);
 		expect(r.ok && r.tokens.filter((t) => t.kind === 'note').length).toBe(2);
 		// free text before the first tune is fine and silent
 		const before = tokenize('Some notes about the file\n\n' + HEAD + 'ab\n');

@@ -4,14 +4,20 @@ import { POST } from '../../../../src/routes/api/transpose/+server';
 import { configureTransposeLimit } from '../../../../src/lib/server/music/transpose-request';
 
 type Event = Parameters<typeof POST>[0];
-const call = async (body: unknown, options: { raw?: string; type?: string; address?: string } = {}) => {
+const call = async (
+	body: unknown,
+	options: { raw?: string; type?: string; address?: string } = {}
+) => {
 	const text = options.raw ?? JSON.stringify(body);
 	const request = new Request('http://localhost/api/transpose', {
 		method: 'POST',
 		headers: { 'content-type': options.type ?? 'application/json' },
 		body: text
 	});
-	const event = { request, getClientAddress: () => options.address ?? '203.0.113.9' } as unknown as Event;
+	const event = {
+		request,
+		getClientAddress: () => options.address ?? '203.0.113.9'
+	} as unknown as Event;
 	const response = await POST(event);
 	return { status: response.status, body: await response.json(), headers: response.headers };
 };
@@ -26,13 +32,23 @@ describe('POST /api/transpose', () => {
 		expect(r.status).toBe(200);
 		expect(r.body).toMatchObject({ key: 'C', quality: '7', instrument: 'concert', warnings: [] });
 		expect(r.body.abc).toContain('"C7"');
-		expect(r.body.notes[0]).toMatchObject({ pitch: 'C4', midi: 60, degree: 'R', chord: { symbol: 'C7' } });
+		expect(r.body.notes[0]).toMatchObject({
+			pitch: 'C4',
+			midi: 60,
+			degree: 'R',
+			chord: { symbol: 'C7' }
+		});
 	});
 
 	it('re-maps and writes for an instrument', async () => {
 		const r = await call({ abc: LICK, to: 'Eb', quality: 'm7', instrument: 'alto-sax' });
 		expect(r.status).toBe(200);
-		expect(r.body).toMatchObject({ key: 'Eb', quality: 'm7', instrument: 'alto-sax', writtenKey: 'C' });
+		expect(r.body).toMatchObject({
+			key: 'Eb',
+			quality: 'm7',
+			instrument: 'alto-sax',
+			writtenKey: 'C'
+		});
 	});
 
 	it('answers malformed abc with 422 and a positioned error', async () => {
@@ -83,7 +99,10 @@ describe('POST /api/transpose', () => {
 				fc.oneof(
 					fc.string({ maxLength: 200 }),
 					fc.json(),
-					fc.record({ abc: fc.string({ maxLength: 200 }), to: fc.option(fc.string({ maxLength: 4 })) })
+					fc.record({
+						abc: fc.string({ maxLength: 200 }),
+						to: fc.option(fc.string({ maxLength: 4 }))
+					})
 				),
 				async (garbage) => {
 					const raw = typeof garbage === 'string' ? garbage : JSON.stringify(garbage);

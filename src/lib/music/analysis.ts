@@ -92,6 +92,17 @@ const sameChord = (a: ChordContext | null, b: ChordContext | null): boolean =>
 	a === b || (!!a && !!b && a.symbol === b.symbol);
 const onBeat = (start: number): boolean => Math.abs(start * 4 - Math.round(start * 4)) < 1e-9;
 
+/** Labels of notes a..b, or undefined when one of them has no chord in force. */
+function labelsOf(degrees: (Degree | null)[], a: number, b: number): DegreeLabel[] | undefined {
+	const out: DegreeLabel[] = [];
+	for (let k = a; k <= b; k++) {
+		const d = degrees[k];
+		if (!d) return undefined;
+		out.push(d.label);
+	}
+	return out;
+}
+
 function list(words: string[]): string {
 	if (words.length <= 1) return words.join('');
 	return words.slice(0, -1).join(', ') + ' and ' + words[words.length - 1];
@@ -182,8 +193,8 @@ function describeArpeggio(
 			/ $/,
 			''
 		);
-	if (!chord) return { ...base, label: `${what} arpeggio (${names.join(' ')}).` };
-	const labels = degrees.slice(a, b + 1).map((d) => d?.label ?? '?') as DegreeLabel[];
+	const labels = labelsOf(degrees, a, b);
+	if (!chord || !labels) return { ...base, label: `${what} arpeggio (${names.join(' ')}).` };
 	const allChordTones = degrees.slice(a, b + 1).every((d) => d?.role === 'chord-tone');
 	if (allChordTones)
 		return {
@@ -237,7 +248,8 @@ function chromaticFills(notes: readonly SoundingNote[], degrees: (Degree | null)
 		const span = b - a;
 		const chord = notes[a].chord!;
 		const names = notes.slice(a, b + 1).map((n) => letterName(n.pitch));
-		const labels = degrees.slice(a, b + 1).map((g) => g!.label);
+		const labels = labelsOf(degrees, a, b);
+		if (!labels) continue;
 		const size =
 			span === 4 ? 'major third' : span === 3 ? 'minor third' : `span of ${span} half steps`;
 		const beats =
@@ -276,7 +288,7 @@ function enclosures(notes: readonly SoundingNote[], degrees: (Degree | null)[]):
 			kind: 'enclosure',
 			start: notes[i].index,
 			end: t.index,
-			degrees: g ? degrees.slice(i, i + 3).map((x) => x!.label) : undefined,
+			degrees: labelsOf(degrees, i, i + 2),
 			label:
 				`${chromatic} of ${targetName}${t.chord ? ` over ${t.chord.symbol}` : ''}: ${name(notes[i])} ` +
 				`${how(first)} ${side(first)}, ${name(notes[i + 1])} ${how(second)} ${side(second)}, then the target.`

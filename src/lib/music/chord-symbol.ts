@@ -32,7 +32,8 @@ function normalise(suffix: string): string {
 	let s = suffix
 		.replace(/[\s(),]/g, '')
 		.replace(/♯/g, '#')
-		.replace(/♭/g, 'b');
+		.replace(/♭/g, 'b')
+		.replace(/[–−]/g, '-');
 	s = s.replace(/ø7?/g, 'm7b5').replace(/[Δ^]/g, 'maj').replace(/°/g, 'o');
 	s = s.replace(/^(MAJ|Maj|maj|MA|Ma|ma)/, 'maj').replace(/^M(?=$|[0-9#b])/, 'maj');
 	s = s
@@ -44,7 +45,7 @@ function normalise(suffix: string): string {
 }
 
 const TYPE_WORDS =
-	/maj|Maj|MAJ|ma|Ma|MA|min|mi|m|M|dim|aug|sus|add|alt|o|ø|°|Δ|\^|\+|-|#|b|♯|♭|\d+|\/|\(|\)|,|\s/gu;
+	/maj|Maj|MAJ|ma|Ma|MA|min|mi|m|M|dim|aug|sus|add|alt|o|ø|°|Δ|\^|\+|-|–|−|#|b|♯|♭|\d+|\/|\(|\)|,|\s/gu;
 
 const ALTERED = /#5|\+|b5|#9|b13|alt/;
 

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { Chord, Interval } from 'tonal';
+import fc from 'fast-check';
+import { Chord, Interval, Note } from 'tonal';
 import { analyseNotes, intervalWords } from '../../../src/lib/music/analysis';
-import { lineOver } from './line-helper';
+import { chordOf, lineOver } from './line-helper';
 
 const devicesOf = (chords: Parameters<typeof lineOver>[0], line: string) =>
 	analyseNotes(lineOver(chords, line)).devices;
@@ -205,5 +206,51 @@ describe('analyseNotes: longer arpeggios', () => {
 		const [d] = devicesOf('G7', 'E6 C6 A5 F5 D5');
 		expect(d).toMatchObject({ chord: 'Fmaj7', degrees: ['13', '11', '9', 'b7', '5'] });
 		expect(d.label).toContain('built on its b7');
+	});
+});
+
+describe('analyseNotes on random lines', () => {
+	const SYMBOLS = [
+		null,
+		'C7',
+		'Dm7',
+		'Ebmaj7',
+		'F#m7b5',
+		'G7alt',
+		'Bbo7',
+		'A6',
+		'Em6',
+		'Db7sus4',
+		'C+'
+	];
+
+	it('never throws and returns devices inside the line, with one degree per note', () => {
+		fc.assert(
+			fc.property(
+				fc.array(fc.tuple(fc.integer({ min: 40, max: 90 }), fc.constantFrom(...SYMBOLS)), {
+					maxLength: 40
+				}),
+				(cells) => {
+					const notes = cells.map(([midi, symbol], index) => ({
+						index,
+						pitch: Note.fromMidi(midi),
+						midi,
+						start: index / 8,
+						duration: 1 / 8,
+						chord: symbol ? chordOf(symbol) : null
+					}));
+					const r = analyseNotes(notes);
+					expect(r.degrees).toHaveLength(notes.length);
+					for (const d of r.devices) {
+						expect(d.start).toBeGreaterThanOrEqual(0);
+						expect(d.end).toBeGreaterThan(d.start);
+						expect(d.end).toBeLessThan(notes.length);
+						expect(d.label.length).toBeGreaterThan(10);
+						if (d.degrees) expect(d.degrees).toHaveLength(d.end - d.start + 1);
+					}
+				}
+			),
+			{ numRuns: 300 }
+		);
 	});
 });

@@ -55,7 +55,10 @@ describe('parseChordSymbol', () => {
 		['Am7/G', 'A', 'm7', 'm7', 'G'],
 		['F/Eb', 'F', '', 'maj7', 'Eb'],
 		['C6/9/E', 'C', '6/9', '6', 'E'],
-		['(G7)', 'G', '7', '7', null]
+		['(G7)', 'G', '7', '7', null],
+		['C–7', 'C', '–7', 'm7', null],
+		['C♯m7', 'C#', 'm7', 'm7', null],
+		['CMaj7', 'C', 'Maj7', 'maj7', null]
 	])('reads %s as root %s, type %j, quality %s, bass %s', (text, root, suffix, quality, bass) => {
 		expect(parseChordSymbol(text)).toEqual({ symbol: text, root, suffix, quality, bass });
 	});

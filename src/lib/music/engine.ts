@@ -385,7 +385,12 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 	return {
 		ok: true,
 		abc,
-		key: firstKey.none ? 'C' : formatNoteName(firstKey.tonic),
+		// K:none has no tonic: the key is the one asked for, if any.
+		key: firstKey.none
+			? target
+				? formatNoteName(target)
+				: 'none'
+			: formatNoteName(firstKey.tonic),
 		writtenKey: formatKeyField(written.keys[0]),
 		quality: layer.quality,
 		instrument,

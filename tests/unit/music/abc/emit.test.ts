@@ -111,6 +111,19 @@ describe('abc emitter', () => {
 		expect(flat.abc).toContain('"Cb7"C2 "Ab7"A,2|');
 	});
 
+	it('transposes every chord of a symbol that names two, and reads the first as the chord in force', () => {
+		const v = variant(HEAD + 'K:C\n"Dm7 G7"D2 G2|\n', 'F');
+		expect(v.abc).toContain('"Gm7 C7"G2 c2|');
+		expect(v.notes[0].chord).toMatchObject({ root: 'G', quality: 'm7' });
+	});
+
+	it('transposes a tune without key signature (K:none) with explicit accidentals only', () => {
+		const v = variant(HEAD + 'K:none\nC ^F _B B|\n', 'D');
+		expect(v.abc).toContain('K:none\n');
+		expect(body(v.abc)).toBe('D ^G c c|');
+		expect(v.key).toBe('D');
+	});
+
 	it('leaves annotations and text that is not a chord untouched', () => {
 		const v = variant(HEAD + 'K:C\n"^solo"C "N.C."D "Coda"E "_low"F|\n', 'D');
 		expect(body(v.abc)).toBe('"^solo"D "N.C."E "Coda"F "_low"G|');

@@ -108,6 +108,20 @@ describe('abc parser', () => {
 		expect(t.notes[15].duration).toBeCloseTo(1 / 8, 10);
 	});
 
+	it('times a chord by its first note and its own length (abc 2.1 §4.17)', () => {
+		// the first note's length sets the chord's; every note of the chord sounds that long here
+		const t = tune(head() + '[C2E4G] [CEG]3/2 c\n');
+		expect(t.notes.map((n) => [n.pitch, n.start, n.duration])).toEqual([
+			['C4', 0, 1 / 4],
+			['E4', 0, 1 / 4],
+			['G4', 0, 1 / 4],
+			['C4', 1 / 4, 3 / 16],
+			['E4', 1 / 4, 3 / 16],
+			['G4', 1 / 4, 3 / 16],
+			['C5', 1 / 4 + 3 / 16, 1 / 8]
+		]);
+	});
+
 	it('merges ties, across bar lines too, but not a tie after a space (abc 2.1 §4.11)', () => {
 		const t = tune(head() + 'c4- | c4 c4 -c4 | ^f2- f2\n');
 		expect(t.notes.map((n) => [n.pitch, n.duration])).toEqual([

@@ -11,12 +11,17 @@
  *    (b13 → 13 over Dorian). Where the target scale holds that number twice or not at all
  *    (the altered scale), the nearest candidate wins, a tie goes the way the line moves, and a
  *    warning says the choice was a judgement call.
+ * 5. A colour note whose new pitch collides with a neighbour takes its second home when that
+ *    does not collide (13 → bb7 on dim7 next to b7 → bb7 becomes b13); a chord tone that landed
+ *    on a chord tone never moves aside.
  * Approach and passing tones are not mapped by degree: a chromatic run between two chord tones
  * is re-derived backwards from its target, a half step at a time (a 3 → R fill on D7 becomes
  * F F E Eb D on Dm7: the fill now spans a minor third, one passing tone too many, and a warning
- * says so); a note outside the source scale, or a half step off a following chord tone, becomes
- * the same approach (same side, same distance) to that note after it moved; targets are chord
- * tones or notes of the parent scale (an enclosure of the 9 keeps its shape).
+ * says so). A single note outside the parent scale (an altered tension such as b9 or b13, or a
+ * chromatic note) a half step off the next note, or enclosing the note after next, becomes the
+ * same approach (same side, same distance) to that note after it moved. Targets are chord tones
+ * or parent-scale notes (an enclosure of the 9 keeps its shape). Steps of the parent scale itself
+ * (11 → 3 on a dominant) stay melody: they are mapped by degree, so F E over C7 is F Eb on Cm7.
  *
  * Which chord a note is mapped over: the chord in force (`note.chord`) when it has the home root
  * or the source quality, else the note is left as written (the other chords of a progression
@@ -270,6 +275,9 @@ function mapRuns(job: Job): void {
 			const root = roots[k]!;
 			place(job, k, midi, table[mod12(midi - LS[root.letter] - root.alt)]);
 		}
+		// The run hangs on its two ends now: they may not move aside later.
+		job.alternative[a] = -1;
+		job.alternative[b] = -1;
 		if (b - a - 1 !== Math.max(span - 1, 0)) job.warnings.push(fillWarning(job, a, b, span));
 		a = b - 1;
 	}
@@ -437,6 +445,7 @@ export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions
 	for (let i = 0; i < n; i++) {
 		const target = targets[i];
 		if (target < 0) continue;
+		job.alternative[target] = -1;
 		const offset = notes[i].midi - notes[target].midi;
 		const midi = midis[target] + offset;
 		const root = roots[i]!;

@@ -168,6 +168,13 @@ describe('remapNotes warnings', () => {
 		expect(codes(r)).toEqual([]);
 	});
 
+	it('never moves the end of a re-derived fill aside, so the fill stays one direction', () => {
+		// C7 → C7alt: the 5 (G) could be b13 or #11; it ends the fill Bb A Ab G, so it stays put
+		const r = pitchesOf('C7', 'Bb4 A4 Ab4 G4 F4', '7alt');
+		const midis = r.pitches.map((p) => Note.midi(p)!);
+		for (let i = 0; i + 1 < 4; i++) expect(midis[i + 1]).toBeLessThanOrEqual(midis[i]);
+	});
+
 	it('warns about a long note landing on an avoid note of the target (the 3 of a sus chord)', () => {
 		const notes = lineOver('C7', 'G4 E4');
 		notes[1] = { ...notes[1], duration: 0.5 };

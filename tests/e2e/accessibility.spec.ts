@@ -61,8 +61,14 @@ test.describe('keyboard alone', () => {
 		await signUpViaApi(request, learner);
 
 		await page.goto('/');
-		const signIn = page.getByRole('navigation', { name: 'Account' }).getByRole('link', { name: 'Sign in' });
-		for (let i = 0; i < 10 && !(await signIn.evaluate((el) => el === document.activeElement)); i++) {
+		const signIn = page
+			.getByRole('navigation', { name: 'Account' })
+			.getByRole('link', { name: 'Sign in' });
+		for (
+			let i = 0;
+			i < 10 && !(await signIn.evaluate((el) => el === document.activeElement));
+			i++
+		) {
 			await page.keyboard.press('Tab');
 		}
 		await expect(signIn).toBeFocused();

@@ -40,7 +40,9 @@ test('a learner signs up with the form, confirms the address from the mailed lin
 	await page.getByLabel('Password').fill(learner.password);
 	await page.getByRole('button', { name: 'Sign in' }).click();
 	await expect(page).toHaveURL(/\/home$/);
-	await expect(page.getByText("Your teacher's decks appear here once you join a class.")).toBeVisible();
+	await expect(
+		page.getByText("Your teacher's decks appear here once you join a class.")
+	).toBeVisible();
 });
 
 test('a learner is refused the teacher and admin pages with 403', async ({ page, request }) => {
@@ -93,4 +95,35 @@ test('an admin made with the CLI reaches the outbox and sees the sign-up mail', 
 	await nav.getByRole('link', { name: 'Outbox' }).click();
 	await expect(page).toHaveURL(/\/admin\/outbox$/);
 	await expect(page.getByText(person.email).first()).toBeVisible();
+});
+
+test.describe('on a phone-sized screen', () => {
+	test.use({ viewport: { width: 390, height: 844 } });
+
+	test('the navigation folds into a Menu button that opens and closes it', async ({
+		page,
+		request
+	}) => {
+		const teacher = newAccount('teacher');
+		await signUpViaApi(request, teacher);
+		await signInViaApi(page, teacher);
+		await page.goto('/teach');
+
+		const menu = page.getByRole('button', { name: 'Menu' });
+		await expect(menu).toHaveAttribute('aria-expanded', 'false');
+		await expect(page.getByRole('link', { name: 'Today' })).toBeHidden();
+		await menu.click();
+		await expect(menu).toHaveAttribute('aria-expanded', 'true');
+		const nav = page.locator('#site-nav-narrow');
+		await expect(nav.getByRole('link', { name: 'Teaching' })).toHaveAttribute(
+			'aria-current',
+			'page'
+		);
+		await nav.getByRole('link', { name: 'Today' }).click();
+		await expect(page).toHaveURL(/\/home$/);
+		await expect(menu).toHaveAttribute('aria-expanded', 'false');
+		// Nothing sticks out sideways.
+		const overflow = await page.evaluate(() => document.documentElement.scrollWidth - innerWidth);
+		expect(overflow).toBeLessThanOrEqual(0);
+	});
 });

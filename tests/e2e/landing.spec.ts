@@ -31,7 +31,10 @@ test.describe('the try-it box', () => {
 		await expect(result.getByTestId('notation').locator('svg').first()).toBeVisible();
 		// The sample's first chord is C7; a minor third up it becomes E♭7, starting on its root.
 		await expect(result.getByRole('list', { name: 'Degrees over Eb7' })).toBeVisible();
-		const first = result.getByRole('list', { name: 'Degrees over Eb7' }).getByRole('listitem').first();
+		const first = result
+			.getByRole('list', { name: 'Degrees over Eb7' })
+			.getByRole('listitem')
+			.first();
 		await expect(first).toContainText('R');
 		await expect(first).toContainText('E♭');
 		await expect(result.getByRole('button', { name: 'Play' })).toBeEnabled();
@@ -48,12 +51,17 @@ test.describe('the try-it box', () => {
 
 	test('a broken lick gets an error with its line and column', async ({ page }) => {
 		await openTryIt(page);
-		await page.getByLabel('Your lick in abc notation').fill('X:1\nM:4/4\nL:1/8\nK:C\n"C7 c d e f |');
+		await page
+			.getByLabel('Your lick in abc notation')
+			.fill('X:1\nM:4/4\nL:1/8\nK:C\n"C7 c d e f |');
 		await page.getByRole('button', { name: 'Show this key' }).click();
 		const error = page.getByTestId('abc-error');
 		await expect(error).toBeVisible();
 		await expect(error).toContainText(/Line 5, column \d+:/);
-		await expect(page.getByLabel('Your lick in abc notation')).toHaveAttribute('aria-invalid', 'true');
+		await expect(page.getByLabel('Your lick in abc notation')).toHaveAttribute(
+			'aria-invalid',
+			'true'
+		);
 		await expect(page.getByTestId('try-result')).toHaveCount(0);
 	});
 
@@ -64,5 +72,20 @@ test.describe('the try-it box', () => {
 		await expect(list.getByRole('listitem')).toHaveCount(12, { timeout: 20_000 });
 		await expect(list.locator('svg')).toHaveCount(12);
 		await expect(page.getByText('All 12 keys, round the cycle of fourths.')).toBeVisible();
+	});
+
+	test('plays the lick with a count-in at a low starting volume, and stops', async ({ page }) => {
+		await openTryIt(page);
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		const result = page.getByTestId('try-result');
+		const volume = result.getByLabel('Volume');
+		await expect(volume).toHaveValue('25');
+		await expect(volume).toHaveAccessibleDescription(/moderate level/);
+		await expect(result.getByLabel('Tempo (bpm)')).toHaveValue('132');
+		await result.getByRole('button', { name: 'Play' }).click();
+		await expect(result.getByRole('button', { name: 'Stop' })).toBeVisible();
+		await expect(result.getByRole('alert')).toHaveCount(0);
+		await result.getByRole('button', { name: 'Stop' }).click();
+		await expect(result.getByRole('button', { name: 'Play' })).toBeVisible();
 	});
 });

@@ -13,7 +13,10 @@ export interface Account {
 let counter = 0;
 
 /** A fresh, unique account (the data folder is wiped per run, so addresses never collide). */
-export function newAccount(role: Role, name = role === 'teacher' ? 'Tess Marlow' : 'Lou Pardee'): Account {
+export function newAccount(
+	role: Role,
+	name = role === 'teacher' ? 'Tess Marlow' : 'Lou Pardee'
+): Account {
 	counter += 1;
 	return {
 		email: `${role}-${process.pid}-${counter}@example.test`,

@@ -26,5 +26,10 @@ export async function seriousViolations(page: Page): Promise<AxeFinding[]> {
 	});
 	return violations
 		.filter((v) => v.impact === 'serious' || v.impact === 'critical')
-		.map((v) => ({ id: v.id, impact: v.impact, help: v.help, targets: v.nodes.map((n) => n.target.join(' ')) }));
+		.map((v) => ({
+			id: v.id,
+			impact: v.impact,
+			help: v.help,
+			targets: v.nodes.map((n) => n.target.join(' '))
+		}));
 }

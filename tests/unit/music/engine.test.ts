@@ -29,7 +29,7 @@ const reparse = (abc: string, prefix = '') => {
 };
 /** Melody pitches, onsets and durations as abcjs 6.7.2 plays them (`setUpAudio`). */
 const abcjsNotes = (abc: string) => {
-	const audio = abcjs.parseOnly(abc)[0].setUpAudio();
+	const audio = abcjs.parseOnly(abc)[0].setUpAudio({});
 	return (audio.tracks[0] as { cmd: string; pitch: number; start: number }[])
 		.filter((e) => e.cmd === 'note')
 		.map((e) => [Math.round(e.start * 1e5), e.pitch])

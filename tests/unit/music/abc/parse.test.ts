@@ -219,7 +219,7 @@ describe('abc parser', () => {
 		const text = head('Bb') + '"Bb7"B,DFA _A=G^FF | (3cBA G>F [DF]2 z2 | d4- d2 c2 |]\n';
 		const ours = tune(text).notes.map((n) => [n.midi, n.start, n.duration]);
 		// reference: abcjs 6.7.2 parseOnly(...)[0].setUpAudio() (melody track)
-		const audio = abcjs.parseOnly(text)[0].setUpAudio();
+		const audio = abcjs.parseOnly(text)[0].setUpAudio({});
 		const theirs = (
 			audio.tracks[0] as { cmd: string; pitch: number; start: number; duration: number }[]
 		)

@@ -224,6 +224,23 @@ function layerFor(lick: PreparedLick, quality: QualityId | null): QualityLayer {
 		if (!p) throw new MusicInvariantError(`Re-mapping gave no pitch for note ${h.sounding}`);
 		return p;
 	});
+	// Grace notes ornament the note after them: they move as that note moved, so a grace a half
+	// step below the 3rd stays a half step below it when the 3rd becomes a b3.
+	for (let i = tune.heads.length - 1, next = -1; i >= 0; i--) {
+		const h = tune.heads[i];
+		if (!h.grace) {
+			next = i;
+			continue;
+		}
+		if (next < 0) continue;
+		const before = tune.heads[next].pitch;
+		const after = pitches[next];
+		const by: Steps = {
+			steps: after.octave * 7 + after.letter - (before.octave * 7 + before.letter),
+			semitones: midiOf(after) - midiOf(before)
+		};
+		pitches[i] = transposePitch(h.pitch, by);
+	}
 	// The chord symbols the line is re-mapped over change with it (same root, new quality).
 	const chordTexts: string[] = [];
 	const contexts: (ChordContext | null)[] = [];
@@ -326,8 +343,14 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		throw new VariantRequestError(`“${String(tritone)}” is not a tritone spelling: use Gb or F#.`);
 	}
 	const target = options.to === undefined ? null : readKeyName(options.to);
+	const octaves = options.octaves ?? 0;
+	if (!Number.isInteger(octaves) || Math.abs(octaves) > 3) {
+		throw new VariantRequestError(
+			`“${String(octaves)}” is not an octave shift: use a whole number from -3 to 3.`
+		);
+	}
 	const layer = layerFor(lick, options.quality ?? null);
-	const concert = concertPlan(lick, target, options.to, tritone, options.octaves ?? 0);
+	const concert = concertPlan(lick, target, options.to, tritone, octaves);
 	const instrumentId = options.instrument === undefined ? null : options.instrument;
 	if (instrumentId !== null && !isInstrumentId(instrumentId)) {
 		throw new VariantRequestError(

@@ -78,6 +78,12 @@ describe('computeVariant', () => {
 		expect(v.quality).toBe('m7');
 	});
 
+	it('moves grace notes with the note they ornament when re-mapping', () => {
+		// over D7 the grace F (a half step below the 3rd F#) stays a half step below the b3 of Dm7
+		const v = variant(HEAD + 'K:C\n"D7"{=F}^F2 A2 d4|\n', { quality: 'm7' });
+		expect(v.abc).toContain('"Dm7"{E}F2 A2 d4|');
+	});
+
 	it('writes for a transposing instrument in the written key and range (REFERENCES.md §4)', () => {
 		// E-flat alto sax reads a major sixth above concert: concert C major is written A major
 		const alto = variant(HEAD + 'K:C\n"C7"C E G _B|\n', { instrument: 'alto-sax' });
@@ -145,7 +151,9 @@ describe('computeVariant', () => {
 		[{ to: 'Cbb' }, /not a key/],
 		[{ quality: 'maj9' }, /not a chord quality/],
 		[{ instrument: 'kazoo' }, /not an instrument/],
-		[{ tritone: 'G' }, /tritone/]
+		[{ tritone: 'G' }, /tritone/],
+		[{ octaves: 1.5 }, /octave shift/],
+		[{ octaves: 9 }, /octave shift/]
 	])(
 		'answers an unknown key, quality, instrument or tritone spelling with a message (%j)',
 		(options, message) => {

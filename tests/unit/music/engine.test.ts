@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import abcjs from 'abcjs';
 import { Interval, Note } from 'tonal';
 import { parseAbc } from '../../../src/lib/music/abc/parse';
+import { tokenize } from '../../../src/lib/music/abc/tokenize';
 import {
 	computeGrid,
 	computeVariant,
@@ -285,6 +286,15 @@ const lickArb = (rich: boolean) =>
 		})
 		.map(({ key, first, items }) => `${HEAD}K:${key}\n${first}${items.join('')} |]\n`);
 
+/** The text of every token that carries no pitch, chord symbol or key. */
+const untouched = (abc: string) => {
+	const r = tokenize(abc);
+	if (!r.ok) throw new Error(r.error.message);
+	return r.tokens
+		.filter((t) => t.kind !== 'note' && t.kind !== 'chord-symbol' && t.name !== 'K')
+		.map((t) => t.text);
+};
+
 const constant = (a: number[], b: number[]) => {
 	expect(a.length).toBe(b.length);
 	const d = a[0] - b[0];
@@ -323,6 +333,8 @@ describe('properties of the twelve-key transposition', () => {
 					expect(
 						reparse(v.abc, '%%propagate-accidentals octave\n').notes.map((n) => n.midi)
 					).toEqual(again.notes.map((n) => n.midi));
+					// everything that is not a pitch, a chord symbol or a key is copied byte for byte
+					expect(untouched(v.abc)).toEqual(untouched(abc));
 					// grace notes move with the rest
 					const graces = (t: ReturnType<typeof reparse>) =>
 						t.heads.filter((h) => h.grace).map((h) => h.midi);

@@ -192,6 +192,12 @@ function readTokens(
 						message: `Line ${t.line}: the field ${name}: is not an abc 2.1 field and is ignored.`
 					});
 				}
+				if (name === 'V' && inBody && !warnings.some((w) => w.code === 'voices')) {
+					warnings.push({
+						code: 'voices',
+						message: `Line ${t.line}: a lick is read as one line of music; the notes of every voice (V:) are read one after another.`
+					});
+				}
 				if (name === 'M') {
 					if (meterLength(value) === undefined) {
 						return fail(

@@ -122,6 +122,26 @@ describe('abc parser', () => {
 		]);
 	});
 
+	it.each([
+		// abc 2.1 §4.13: (p without q is p in the time of 3 for 2, 4, 8; of 2 for 3, 6; and for 5, 7, 9
+		// of 3 in compound meter, else 2
+		['4/4', '(2ab', 2, 3 / 2],
+		['4/4', '(4abcd', 4, 3 / 4],
+		['4/4', '(5abcde', 5, 2 / 5],
+		['6/8', '(5abcde', 5, 3 / 5],
+		['4/4', '(6abcdef', 6, 2 / 6],
+		['9/8', '(7abcdefg', 7, 3 / 7]
+	])('in M:%s reads %s as p notes in the time of q', (meter, music, count, each) => {
+		const t = tune(`X:1\nM:${meter}\nL:1/8\nK:C\n${music} c\n`);
+		t.notes.slice(0, count).forEach((n) => expect(n.duration).toBeCloseTo(each / 8, 10));
+		expect(t.notes[count].duration).toBe(1 / 8);
+	});
+
+	it('reads a>>b as 7:1 and a<b as 1:3 (abc 2.1 §4.4)', () => {
+		const t = tune(head() + 'a>>b a<b\n');
+		expect(t.notes.map((n) => n.duration * 8)).toEqual([7 / 4, 1 / 4, 1 / 2, 3 / 2]);
+	});
+
 	it('merges ties, across bar lines too, but not a tie after a space (abc 2.1 §4.11)', () => {
 		const t = tune(head() + 'c4- | c4 c4 -c4 | ^f2- f2\n');
 		expect(t.notes.map((n) => [n.pitch, n.duration])).toEqual([

@@ -7,6 +7,7 @@
  * Each figure is the median of several timed batches after a warm-up.
  */
 import { readFileSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import abcjs from 'abcjs';
 import { Interval, Note } from 'tonal';
@@ -21,8 +22,11 @@ const LICK = readFileSync(
 const QUALITIES: QualityId[] = ['7', 'm7', 'maj7', 'm7b5', '7alt', 'dim7', '6', 'm6'];
 const KEYS = MAJOR_KEY_SPELLINGS;
 
+/** Fastest batch per timed figure, for the report below (least disturbed by other processes). */
+const fastest = new Map<string, number>();
+
 /** Median milliseconds per call of `fn`, over `batches` batches of `reps` calls. */
-function measure(fn: () => unknown, reps: number, batches = 15): number {
+function measure(name: string, fn: () => unknown, reps: number, batches = 15): number {
 	for (let i = 0; i < reps * 3; i++) fn();
 	const times: number[] = [];
 	for (let b = 0; b < batches; b++) {
@@ -31,6 +35,7 @@ function measure(fn: () => unknown, reps: number, batches = 15): number {
 		times.push((performance.now() - t0) / reps);
 	}
 	times.sort((a, b) => a - b);
+	fastest.set(name, times[0]);
 	return times[Math.floor(times.length / 2)];
 }
 
@@ -45,27 +50,39 @@ let sink = 0;
 
 // 1. Our grid: parse once, re-map over 8 qualities, transpose to 12 keys, spell, emit abc, label
 // every note with its degree.
-const gridMs = measure(() => {
-	const grid = computeGrid(LICK, KEYS, QUALITIES);
-	if (!grid.ok) throw new Error(grid.error.message);
-	sink += grid.variants.length;
-}, 20);
+const gridMs = measure(
+	'grid',
+	() => {
+		const grid = computeGrid(LICK, KEYS, QUALITIES);
+		if (!grid.ok) throw new Error(grid.error.message);
+		sink += grid.variants.length;
+	},
+	20
+);
 
 // The same without the parse and the re-mapping (they are cached on a prepared lick).
-const renderMs = measure(() => {
-	for (const to of KEYS)
-		for (const quality of QUALITIES)
-			sink += renderVariant(prepared.lick, { to, quality }).abc.length;
-}, 20);
+const renderMs = measure(
+	'render',
+	() => {
+		for (const to of KEYS)
+			for (const quality of QUALITIES)
+				sink += renderVariant(prepared.lick, { to, quality }).abc.length;
+	},
+	20
+);
 
 // 2. A bare tonal loop over the same notes and intervals: 96 variants × 26 notes.
-const tonalMs = measure(() => {
-	for (const iv of intervals) {
-		for (let q = 0; q < QUALITIES.length; q++) {
-			for (const p of pitches) sink += Note.transpose(p, iv).length;
+const tonalMs = measure(
+	'tonal',
+	() => {
+		for (const iv of intervals) {
+			for (let q = 0; q < QUALITIES.length; q++) {
+				for (const p of pitches) sink += Note.transpose(p, iv).length;
+			}
 		}
-	}
-}, 20);
+	},
+	20
+);
 
 // 3. abcjs: parse once, then strTranspose for each of the 96 variants.
 const visual = abcjs.parseOnly(LICK);
@@ -73,11 +90,15 @@ const semitones = KEYS.map((k) => {
 	const s = Interval.semitones(Interval.distance(home, k)) ?? 0;
 	return s > 6 ? s - 12 : s;
 });
-const abcjsMs = measure(() => {
-	for (const s of semitones) {
-		for (let q = 0; q < QUALITIES.length; q++) sink += abcjs.strTranspose(LICK, visual, s).length;
-	}
-}, 5);
+const abcjsMs = measure(
+	'abcjs',
+	() => {
+		for (const s of semitones) {
+			for (let q = 0; q < QUALITIES.length; q++) sink += abcjs.strTranspose(LICK, visual, s).length;
+		}
+	},
+	5
+);
 
 const variants = KEYS.length * QUALITIES.length;
 const us = (ms: number) => `${(ms * 1000).toFixed(1)} µs`;
@@ -91,7 +112,13 @@ const lines = [
 	'',
 	`Ratio grid / tonal loop:  ${(gridMs / tonalMs).toFixed(2)}×   (aim ≤ 1.5×)`,
 	`Ratio grid / abcjs:       ${(gridMs / abcjsMs).toFixed(2)}×   (aim < 1×, per variant)`,
-	`Grid under 2 ms:          ${gridMs < 2 ? 'yes' : 'no'}`
+	`Grid under 2 ms:          ${gridMs < 2 ? 'yes' : 'no'}`,
+	`Fastest batches: grid ${fastest.get('grid')?.toFixed(3)} ms, tonal ${fastest.get('tonal')?.toFixed(3)} ms, abcjs ${fastest.get('abcjs')?.toFixed(3)} ms (figures above are medians)`,
+	'',
+	// Shared machines make timings noisy; the load shows how noisy this run was.
+	`Machine: ${cpus().length} cores, load average ${loadavg()
+		.map((l) => l.toFixed(2))
+		.join(' ')}; Node ${process.version}`
 ];
 console.log(lines.join('\n'));
 if (sink === 0) console.log('(nothing computed)');

@@ -127,3 +127,19 @@ test.describe('on a phone-sized screen', () => {
 		expect(overflow).toBeLessThanOrEqual(0);
 	});
 });
+
+test('the page data sent to the browser names the user and nothing more', async ({
+	page,
+	request
+}) => {
+	const learner = newAccount('learner');
+	await signUpViaApi(request, learner);
+	await signInViaApi(page, learner);
+	const res = await page.request.get('/home/__data.json');
+	expect(res.status()).toBe(200);
+	const text = await res.text();
+	expect(text).toContain(learner.email);
+	for (const secret of ['password', 'hash', 'settings', 'digestHour', 'session', 'token']) {
+		expect(text, secret).not.toContain(secret);
+	}
+});

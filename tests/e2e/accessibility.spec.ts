@@ -31,6 +31,15 @@ test.describe('axe-core finds no serious or critical violation', () => {
 				expect(await seriousViolations(page)).toEqual([]);
 			});
 
+			test('on the refusal a learner gets from a teacher page', async ({ page, request }) => {
+				const learner = newAccount('learner');
+				await signUpViaApi(request, learner);
+				await signInViaApi(page, learner);
+				const response = await page.goto('/teach');
+				expect(response?.status()).toBe(403);
+				expect(await seriousViolations(page)).toEqual([]);
+			});
+
 			test('on the try-it box with a result shown', async ({ page }) => {
 				await page.goto('/');
 				await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();

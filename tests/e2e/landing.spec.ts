@@ -13,7 +13,7 @@ test('the landing page answers 200, names the product and says the job', async (
 	await expect(page.getByRole('heading', { level: 1 })).toHaveText(
 		/Learn a lick once.\s*Own it in all twelve keys./
 	);
-	await expect(page.getByRole('link', { name: 'Create a free account' })).toHaveAttribute(
+	await expect(page.getByRole('link', { name: 'Create your account' })).toHaveAttribute(
 		'href',
 		'/sign-up'
 	);

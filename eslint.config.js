@@ -22,8 +22,21 @@ export default ts.config(
 	},
 	{
 		rules: {
-			'@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }]
+			'@typescript-eslint/no-unused-vars': [
+				'error',
+				{ argsIgnorePattern: '^_', varsIgnorePattern: '^_' }
+			]
 		}
 	},
-	{ ignores: ['build/', '.svelte-kit/', 'node_modules/', 'data/', 'test-results/'] }
+	{
+		ignores: [
+			'build/',
+			'.svelte-kit/',
+			'node_modules/',
+			'data/',
+			'test-results/',
+			'tmp/',
+			'playwright-report/'
+		]
+	}
 );

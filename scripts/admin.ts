@@ -16,5 +16,7 @@ if (!result.ok) {
 	process.exit(1);
 }
 console.log(
-	result.changed ? `${result.user.email} is now an admin.` : `${result.user.email} was already an admin.`
+	result.changed
+		? `${result.user.email} is now an admin.`
+		: `${result.user.email} was already an admin.`
 );

@@ -33,6 +33,10 @@ const stale =
 		statSync(buildEntry).mtimeMs;
 if (stale) run('npx', ['vite', 'build', '--logLevel', 'warn']);
 
-const server = spawn('node', ['scripts/start.js'], { stdio: 'inherit', cwd: root, env: process.env });
+const server = spawn('node', ['scripts/start.js'], {
+	stdio: 'inherit',
+	cwd: root,
+	env: process.env
+});
 for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => server.kill(signal));
 server.on('exit', (code) => process.exit(code ?? 0));

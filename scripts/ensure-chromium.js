@@ -8,9 +8,12 @@ if (!existsSync(path)) {
 	const root = typeof process.getuid === 'function' && process.getuid() === 0;
 	if (root && existsSync('/usr/bin/apt-get')) {
 		console.log('Chromium is missing: installing Debian package "chromium"…');
-		execSync('apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium', {
-			stdio: 'inherit'
-		});
+		execSync(
+			'apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium',
+			{
+				stdio: 'inherit'
+			}
+		);
 	} else {
 		console.error(
 			`Chromium not found at ${path}. Install it (Debian: apt-get install chromium) or set CHROMIUM_PATH.`

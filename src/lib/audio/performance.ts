@@ -116,7 +116,13 @@ export function buildPerformance(
 
 	const events: PerformanceEvent[] = [];
 	for (let i = 0; i < countInBeats; i++) {
-		events.push({ part: 'click', midi: [i === 0 ? 84 : 79], time: i * beat, duration: 0.06, accent: i === 0 });
+		events.push({
+			part: 'click',
+			midi: [i === 0 ? 84 : 79],
+			time: i * beat,
+			duration: 0.06,
+			accent: i === 0
+		});
 	}
 
 	let chordStart = 0;

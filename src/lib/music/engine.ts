@@ -86,6 +86,8 @@ export interface VariantSuccess {
 	notes: VariantNote[];
 	/** Devices the line uses, when asked for with `analyse`. */
 	devices?: Device[];
+	/** True when a teacher's hand-written version for this quality replaced the computed one. */
+	handWritten: boolean;
 }
 
 export type VariantResult = VariantSuccess | { ok: false; error: AbcError };
@@ -103,7 +105,12 @@ export interface PreparedLick {
 	keys: KeySignature[];
 	/** For each sounding note, the index of the chord symbol in force, or -1. */
 	chordOfNote: number[];
+	/** Teachers' hand-written versions by quality; each replaces the computed re-mapping. */
+	versions: Map<QualityId, PreparedLick>;
 }
+
+/** Hand-written versions of a lick, by the quality each is written over (abc text each). */
+export type HandWrittenVersions = Partial<Record<QualityId, string>>;
 
 const NONE: readonly MusicWarning[] = [];
 
@@ -125,7 +132,8 @@ interface QualityLayer {
 	warnings: MusicWarning[];
 }
 
-export type PrepareResult = { ok: true; lick: PreparedLick } | { ok: false; error: AbcError };
+export type PrepareResult =
+	{ ok: true; lick: PreparedLick } | { ok: false; error: AbcError & { version?: QualityId } };
 
 /** Errors in the request rather than in the abc; the message names the bad value. */
 export class VariantRequestError extends Error {
@@ -152,10 +160,40 @@ const readChord = (symbol: string): ChordContext | null => {
 };
 
 /**
- * Parse a lick once.
+ * Parse a lick once, with any hand-written versions for other qualities. An error in a version
+ * names that version's quality; its line and column count within the version's own text.
  * @example prepareLick('X:1\nK:C\n"C7"CEGB|').lick.quality // '7'
  */
-export function prepareLick(abc: string): PrepareResult {
+export function prepareLick(abc: string, versions: HandWrittenVersions = {}): PrepareResult {
+	const prepared = prepareOne(abc);
+	if (!prepared.ok) return prepared;
+	for (const [quality, text] of Object.entries(versions)) {
+		if (!isQualityId(quality)) {
+			return {
+				ok: false,
+				error: {
+					message: `A hand-written version is filed under “${quality}”, which is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.`
+				}
+			} as PrepareResult;
+		}
+		if (typeof text !== 'string') continue;
+		const version = prepareOne(text);
+		if (!version.ok) {
+			return {
+				ok: false,
+				error: {
+					...version.error,
+					message: `In the hand-written ${quality} version: ${version.error.message}`,
+					version: quality
+				}
+			};
+		}
+		prepared.lick.versions.set(quality, version.lick);
+	}
+	return prepared;
+}
+
+function prepareOne(abc: string): PrepareResult {
 	const parsed = parseAbc(abc, readChord);
 	if (!parsed.ok) return parsed;
 	const { tune } = parsed;
@@ -179,7 +217,8 @@ export function prepareLick(abc: string): PrepareResult {
 			layers: new Map([[quality, own]]),
 			plans: new Map(),
 			keys: tune.keys.map((k) => k.key),
-			chordOfNote
+			chordOfNote,
+			versions: new Map()
 		}
 	};
 }
@@ -337,6 +376,8 @@ function concertPlan(
  * @example renderVariant(lick, { to: 'Eb' }).key // 'Eb'
  */
 export function renderVariant(lick: PreparedLick, options: VariantOptions = {}): VariantSuccess {
+	const version = options.quality ? lick.versions.get(options.quality) : undefined;
+	if (version) return renderHandWritten(lick, version, options);
 	const { tune } = lick;
 	const tritone = options.tritone ?? 'Gb';
 	if (tritone !== 'Gb' && tritone !== 'F#') {
@@ -361,14 +402,11 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 
 	const concertPitches = movePitches(tune, layer.pitches, concert.interval, concert.keys);
 	const concertChords = moveChords(tune, layer, concert.interval, concert.keys);
-	const { plan: written, fitWarnings } = writtenPlan(
-		instrumentId,
-		lick.keys,
-		concert,
-		tune,
-		concertPitches,
-		tritone
-	);
+	const {
+		plan: written,
+		fitWarnings,
+		octaveShift
+	} = writtenPlan(instrumentId, lick.keys, concert, tune, concertPitches, tritone);
 	const writtenPitches =
 		written === concert
 			? concertPitches
@@ -381,13 +419,19 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		pitches: writtenPitches,
 		chordSymbols: writtenChords.texts
 	});
+	// The octave chosen to fit the instrument's range moves what it sounds too: the notes (and so
+	// playback) must match the staff, an octave above the concert line or not.
+	const soundingPitches =
+		octaveShift === 0
+			? concertPitches
+			: concertPitches.map((p) => ({ ...p, octave: p.octave + octaveShift }));
 	const notes: VariantNote[] = new Array(tune.notes.length);
 	const { heads } = tune;
 	for (let i = 0; i < heads.length; i++) {
 		const h = heads[i];
 		if (h.grace || h.continuation) continue;
 		const src = tune.notes[h.sounding];
-		const p = concertPitches[i];
+		const p = soundingPitches[i];
 		const midi = midiOf(p);
 		// The chord in force is the same symbol as in the source, now moved.
 		const ci = lick.chordOfNote[h.sounding];
@@ -426,8 +470,35 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			analysis?.warning ? [analysis.warning] : NONE
 		),
 		notes,
-		...(devices ? { devices } : {})
+		...(devices ? { devices } : {}),
+		handWritten: false
 	};
+}
+
+/**
+ * A variant from a teacher's hand-written version: the version is moved to the target key as
+ * written (no re-mapping), starting from the lick's own key when no target is named.
+ */
+function renderHandWritten(
+	lick: PreparedLick,
+	version: PreparedLick,
+	options: VariantOptions
+): VariantSuccess {
+	const home = lick.keys[0];
+	const to = options.to ?? (home && !home.none ? formatNoteName(home.tonic) : undefined);
+	const result = renderVariant(version, { ...options, to, quality: undefined });
+	const quality = options.quality as QualityId;
+	const warnings =
+		version.quality === quality
+			? result.warnings
+			: [
+					...result.warnings,
+					{
+						code: 'version-quality',
+						message: `The hand-written ${quality} version's first chord symbol reads as ${version.quality ?? 'no known quality'}, not ${quality}.`
+					}
+				];
+	return { ...result, quality, warnings, handWritten: true };
 }
 
 /**
@@ -455,8 +526,8 @@ function writtenPlan(
 	tune: ParsedAbc,
 	pitches: readonly SpelledPitch[],
 	tritone: TritoneSpelling
-): { plan: KeyPlan; fitWarnings: MusicWarning[] } {
-	if (instrument === null) return { plan: concert, fitWarnings: [] };
+): { plan: KeyPlan; fitWarnings: MusicWarning[]; octaveShift: number } {
+	if (instrument === null) return { plan: concert, fitWarnings: [], octaveShift: 0 };
 	const row = getInstrument(instrument);
 	const midis: number[] = [];
 	for (let i = 0; i < tune.heads.length; i++) {
@@ -470,7 +541,11 @@ function writtenPlan(
 	};
 	const shifted = shiftPlan(keys, concert, by, tritone);
 	const clefKeys = shifted.keys.map((k) => withClef(k, row.clef));
-	return { plan: { ...shifted, keys: clefKeys }, fitWarnings: fit.warnings };
+	return {
+		plan: { ...shifted, keys: clefKeys },
+		fitWarnings: fit.warnings,
+		octaveShift: fit.octaveShift
+	};
 }
 
 const CLEF_TEXT = /(^|\s)(clef=\S+|treble(?:[+-]8)?|bass(?:[+-]8)?|alto|tenor|perc)(?=\s|$)/g;
@@ -489,11 +564,11 @@ function withClef(key: KeySignature, clef: string): KeySignature {
  * @example computeVariant({ abc: 'X:1\nK:Bb\n"Bb7"B2|', to: 'C' }).abc // 'X:1\nK:C\n"C7"c2|'
  */
 export function computeVariant(
-	request: { abc: string } & VariantOptions
+	request: { abc: string; versions?: HandWrittenVersions } & VariantOptions
 ): VariantResult | { ok: false; error: { message: string; line?: number; column?: number } } {
 	if (typeof request.abc !== 'string')
 		return { ok: false, error: { message: 'The abc text is missing.' } };
-	const prepared = prepareLick(request.abc);
+	const prepared = prepareLick(request.abc, request.versions);
 	if (!prepared.ok) return prepared;
 	try {
 		return renderVariant(prepared.lick, { analyse: true, ...request });
@@ -517,9 +592,10 @@ export function computeGrid(
 	keys: readonly KeyName[],
 	qualities: readonly QualityId[],
 	instrument?: string,
-	tritone: TritoneSpelling = 'Gb'
+	tritone: TritoneSpelling = 'Gb',
+	versions: HandWrittenVersions = {}
 ): GridResult | { ok: false; error: { message: string; line?: number; column?: number } } {
-	const prepared = prepareLick(abc);
+	const prepared = prepareLick(abc, versions);
 	if (!prepared.ok) return prepared;
 	const variants: VariantSuccess[] = [];
 	try {

@@ -10,6 +10,7 @@ export {
 	renderVariant,
 	VariantRequestError,
 	type GridResult,
+	type HandWrittenVersions,
 	type PreparedLick,
 	type PrepareResult,
 	type VariantNote,

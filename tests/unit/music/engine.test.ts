@@ -9,6 +9,7 @@ import {
 	computeVariant,
 	prepareLick,
 	renderVariant,
+	type HandWrittenVersions,
 	type VariantSuccess
 } from '../../../src/lib/music/engine';
 import { MAJOR_KEY_SPELLINGS } from '../../../src/lib/music/key-data';
@@ -17,7 +18,7 @@ import { QUALITY_IDS } from '../../../src/lib/music/types';
 const HEAD = 'X:1\nT:Lick\nM:4/4\nL:1/8\n';
 const variant = (
 	abc: string,
-	options: Parameters<typeof renderVariant>[1] = {}
+	options: Parameters<typeof renderVariant>[1] & { versions?: HandWrittenVersions } = {}
 ): VariantSuccess => {
 	const r = computeVariant({ abc, ...options });
 	if (!r.ok) throw new Error(r.error.message);
@@ -111,6 +112,65 @@ describe('computeVariant', () => {
 		const a = variant(abc, { instrument: 'trumpet', tritone: 'Gb' });
 		const b = variant(abc, { instrument: 'trumpet', tritone: 'F#' });
 		expect(a.notes).toEqual(b.notes);
+	});
+
+	it('sounds the octave the instrument is written in when the range fit moves the line', () => {
+		// Concert treble reads C4–C6 or so: a line around C6 is written an octave lower, and the
+		// sounding notes (which playback uses) must follow the staff (abc 2.1 §4.1: c' is MIDI 84).
+		const high = variant(HEAD + "K:C\nc'e'g'e'|\n", { instrument: 'concert' });
+		const written = reparse(high.abc).notes.map((n) => n.midi);
+		expect(high.notes.map((n) => n.midi)).toEqual(written);
+		expect(written[0]).toBeLessThan(84);
+		// For a transposing instrument the notes stay concert pitch, one fixed interval below the
+		// staff: B-flat trumpet reads a major second above what sounds (REFERENCES.md §4).
+		const trumpet = variant(HEAD + "K:C\nc'e'g'e'|\n", { instrument: 'trumpet' });
+		const staff = reparse(trumpet.abc).notes.map((n) => n.midi);
+		expect(trumpet.notes.map((n, i) => staff[i] - n.midi)).toEqual([2, 2, 2, 2]);
+	});
+
+	it("replaces the computed re-mapping with a teacher's hand-written version for that quality", () => {
+		const lick = HEAD + 'K:C\n"C7"E2 G2 _B2 c2|\n';
+		// The teacher prefers a different line over Cm7: written by hand, in the lick's key.
+		const minor = HEAD + 'K:C\n"Cm7"_E2 F2 G2 _B2|\n';
+		const v = variant(lick, { quality: 'm7', versions: { m7: minor }, to: 'F' });
+		expect(v.handWritten).toBe(true);
+		expect(v.quality).toBe('m7');
+		expect(v.key).toBe('F');
+		// Cm7 line moved up a fourth: Ab Bb C Eb over Fm7 (tonal Note.transpose('Eb4', '4P') = 'Ab4')
+		expect(v.notes.map((n) => n.pitch)).toEqual(
+			['Eb4', 'F4', 'G4', 'Bb4'].map((p) => Note.transpose(p, '4P'))
+		);
+		expect(v.abc).toContain('"Fm7"');
+		// Other qualities are still computed from the original.
+		const computed = variant(lick, { quality: 'maj7', versions: { m7: minor } });
+		expect(computed.handWritten).toBe(false);
+		expect(computed.notes.map((n) => n.pitch)).toEqual(['E4', 'G4', 'B4', 'C5']);
+	});
+
+	it('warns when a hand-written version is written over another quality than it is filed under', () => {
+		const lick = HEAD + 'K:C\n"C7"E2 G2 _B2 c2|\n';
+		const v = variant(lick, {
+			quality: 'm7',
+			versions: { m7: HEAD + 'K:C\n"Cmaj7"E2 G2 B2 c2|\n' }
+		});
+		expect(v.warnings.map((w) => w.code)).toContain('version-quality');
+	});
+
+	it('reports an error inside a hand-written version with its quality and position', () => {
+		const r = computeVariant({
+			abc: HEAD + 'K:C\n"C7"E2 G2|\n',
+			versions: { m7: HEAD + 'K:C\n"Cm7 E2 G2|\n' }
+		});
+		expect(r.ok).toBe(false);
+		if (r.ok) return;
+		expect(r.error.message).toMatch(/^In the hand-written m7 version: /);
+		expect(r.error.line).toBe(6);
+		const bad = computeVariant({
+			abc: HEAD + 'K:C\nC|\n',
+			versions: { bogus: 'X:1' } as HandWrittenVersions
+		});
+		expect(bad.ok).toBe(false);
+		if (!bad.ok) expect(bad.error.message).toContain('“bogus”');
 	});
 
 	it('moves the line by whole octaves when asked', () => {

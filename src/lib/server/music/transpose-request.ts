@@ -11,6 +11,7 @@ import {
 	QUALITY_IDS,
 	readKeyName,
 	VariantRequestError,
+	type HandWrittenVersions,
 	type VariantOptions
 } from '$lib/music';
 
@@ -32,10 +33,10 @@ export function configureTransposeLimit(options: RateLimiterOptions = TRANSPOSE_
 }
 
 export type TransposeInput =
-	| { ok: true; abc: string; options: VariantOptions }
+	| { ok: true; abc: string; options: VariantOptions; versions: HandWrittenVersions }
 	| { ok: false; status: 400 | 422; message: string };
 
-const FIELDS = ['abc', 'to', 'quality', 'instrument', 'tritone'];
+const FIELDS = ['abc', 'to', 'quality', 'instrument', 'tritone', 'versions'];
 
 /**
  * Check the JSON body's fields and types; the engine checks the music.
@@ -55,10 +56,10 @@ export function readTransposeInput(body: unknown): TransposeInput {
 		return {
 			ok: false,
 			status: 400,
-			message: `Unknown field ${unknown.map((k) => `“${k}”`).join(', ')}: send abc, to, quality, instrument or tritone.`
+			message: `Unknown field ${unknown.map((k) => `“${k}”`).join(', ')}: send abc, to, quality, instrument, tritone or versions.`
 		};
 	}
-	const { abc, to, quality, instrument, tritone } = value;
+	const { abc, to, quality, instrument, tritone, versions: versionsInput } = value;
 	if (typeof abc !== 'string' || abc.trim() === '') {
 		return { ok: false, status: 400, message: 'Send the lick as a non-empty string in “abc”.' };
 	}
@@ -107,5 +108,44 @@ export function readTransposeInput(body: unknown): TransposeInput {
 		}
 		options.tritone = tritone;
 	}
-	return { ok: true, abc, options };
+	const versions = readVersions(versionsInput);
+	if (!versions.ok) return versions;
+	return { ok: true, abc, options, versions: versions.versions };
+}
+
+/**
+ * Hand-written versions: an object from quality to abc text, e.g. `{"m7": "X:1\nK:C\n…"}`.
+ * @example readVersions({ m7: 'X:1\nK:C\n"Cm7"C' }) // { ok: true, versions: { m7: … } }
+ */
+function readVersions(
+	input: unknown
+): { ok: true; versions: HandWrittenVersions } | { ok: false; status: 400 | 422; message: string } {
+	if (input === undefined || input === null) return { ok: true, versions: {} };
+	if (typeof input !== 'object' || Array.isArray(input)) {
+		return {
+			ok: false,
+			status: 400,
+			message:
+				'“versions” must be an object from chord quality to abc, such as {"m7": "X:1\\nK:C\\n…"}.'
+		};
+	}
+	const versions: HandWrittenVersions = {};
+	for (const [quality, text] of Object.entries(input)) {
+		if (!isQualityId(quality)) {
+			return {
+				ok: false,
+				status: 422,
+				message: `“${quality}” in “versions” is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.`
+			};
+		}
+		if (typeof text !== 'string' || text.trim() === '') {
+			return {
+				ok: false,
+				status: 400,
+				message: `The hand-written ${quality} version must be a non-empty abc string.`
+			};
+		}
+		versions[quality] = text;
+	}
+	return { ok: true, versions };
 }

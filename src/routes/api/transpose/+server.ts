@@ -14,9 +14,10 @@ const fail = (
 ) => json({ error }, { status, headers });
 
 /**
- * `POST /api/transpose` `{ abc, to?, quality?, instrument?, tritone? }` → 200
- * `{ abc, key, writtenKey, quality, instrument, warnings, notes, devices }`. Public (it serves the
- * landing page's try-it box) and limited per client address. 400 unreadable JSON or wrong types,
+ * `POST /api/transpose` `{ abc, to?, quality?, instrument?, tritone?, versions? }` → 200
+ * `{ abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten }`;
+ * `versions` maps a quality to a teacher's hand-written abc for it, which replaces re-mapping.
+ * Public (it serves the landing page's try-it box) and limited per client address. 400 unreadable JSON or wrong types,
  * 413 body over 20 KB, 415 not JSON, 422 malformed abc (with line and column) or an unknown key,
  * quality or instrument, 429 too many requests.
  */
@@ -52,7 +53,7 @@ export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 
 	let result: ReturnType<typeof computeVariant>;
 	try {
-		result = computeVariant({ abc: input.abc, ...input.options });
+		result = computeVariant({ abc: input.abc, versions: input.versions, ...input.options });
 	} catch (e) {
 		// The engine answers bad abc with a result, not a throw; should one slip through, the
 		// person still gets a sentence and a 422 rather than a server error.
@@ -60,9 +61,10 @@ export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 		return fail(422, { message: 'This lick could not be read; check the notation near its end.' });
 	}
 	if (!result.ok) return fail(422, result.error);
-	const { abc, key, writtenKey, quality, instrument, warnings, notes, devices } = result;
+	const { abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten } =
+		result;
 	return json(
-		{ abc, key, writtenKey, quality, instrument, warnings, notes, devices },
+		{ abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten },
 		{ status: 200 }
 	);
 };

@@ -40,6 +40,26 @@ describe('POST /api/transpose', () => {
 		});
 	});
 
+	it('uses a hand-written version for its quality and says so', async () => {
+		const minor = 'X:1\nM:4/4\nL:1/8\nK:Bb\n"Bbm7"B,_DFA _A=GFD|\n';
+		const r = await call({ abc: LICK, quality: 'm7', versions: { m7: minor } });
+		expect(r.status).toBe(200);
+		expect(r.body).toMatchObject({ quality: 'm7', handWritten: true, key: 'Bb' });
+		const plain = await call({ abc: LICK, quality: 'm7' });
+		expect(plain.body.handWritten).toBe(false);
+	});
+
+	it('refuses malformed versions with 400 or 422 and a message', async () => {
+		expect((await call({ abc: LICK, versions: ['X:1'] })).status).toBe(400);
+		expect((await call({ abc: LICK, versions: { m7: 3 } })).status).toBe(400);
+		const unknown = await call({ abc: LICK, versions: { m9: 'X:1\nK:C\nC' } });
+		expect(unknown.status).toBe(422);
+		expect(unknown.body.error.message).toContain('m9');
+		const broken = await call({ abc: LICK, quality: 'm7', versions: { m7: 'X:1\nK:C\n"Cm7 C|' } });
+		expect(broken.status).toBe(422);
+		expect(broken.body.error).toMatchObject({ line: 3 });
+	});
+
 	it('re-maps and writes for an instrument', async () => {
 		const r = await call({ abc: LICK, to: 'Eb', quality: 'm7', instrument: 'alto-sax' });
 		expect(r.status).toBe(200);

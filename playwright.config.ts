@@ -12,14 +12,15 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 1,
 	retries: 0,
-	reporter: 'list',
+	// `npm test` asks for a JSON report too, to total every suite in one closing line.
+	reporter: process.env.PLAYWRIGHT_JSON_OUTPUT_NAME ? [['list'], ['json']] : 'list',
 	timeout: 30_000,
 	expect: { timeout: 7_000 },
 	use: {
 		baseURL: E2E_ORIGIN,
 		viewport: { width: 1280, height: 800 },
 		launchOptions: {
-			executablePath: '/usr/bin/chromium',
+			executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium',
 			args: [
 				'--no-sandbox',
 				'--disable-gpu',

@@ -4,7 +4,8 @@
 import { spawnSync } from 'node:child_process';
 import { readFileSync, rmSync, mkdirSync, existsSync } from 'node:fs';
 
-const out = 'test-results';
+// Not Playwright's own `test-results/`, which it empties when it starts.
+const out = 'tmp/reports';
 rmSync(`${out}/vitest.json`, { force: true });
 rmSync(`${out}/e2e.json`, { force: true });
 mkdirSync(out, { recursive: true });

@@ -1,6 +1,5 @@
 import {
 	error,
-	json,
 	redirect,
 	type Handle,
 	type HandleServerError,
@@ -12,6 +11,7 @@ import { migrate } from '$lib/server/db/migrate';
 import { startMail, stopMail } from '$lib/server/mail';
 import { closeDb } from '$lib/server/db';
 import { signInUrl } from '$lib/server/auth/redirects';
+import { apiError } from '$lib/server/http/json';
 import {
 	deleteSessionCookie,
 	readSessionToken,
@@ -56,9 +56,9 @@ export const handleRoleGate: Handle = async ({ event, resolve }) => {
 	const user = event.locals.user;
 
 	if (id.startsWith('/api/admin')) {
-		if (!user) return json({ message: 'Sign in first.' }, { status: 401 });
+		if (!user) return apiError(401, 'Sign in first.');
 		if (user.role !== 'admin') {
-			return json({ message: 'Only admins may use this endpoint.' }, { status: 403 });
+			return apiError(403, 'Only admins may use this endpoint.');
 		}
 	} else if (id.startsWith('/(admin)')) {
 		if (!user) redirect(303, signInUrl(event.url));

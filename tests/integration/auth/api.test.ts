@@ -94,7 +94,7 @@ describe('POST /api/auth/sign-up', () => {
 			body: { email, password: PASSWORD, name: 'Again', role: 'learner' }
 		});
 		expect(res.status).toBe(409);
-		expect(await res.json()).toMatchObject({ field: 'email' });
+		expect(await res.json()).toMatchObject({ error: { field: 'email' } });
 	});
 
 	test.each([
@@ -107,7 +107,7 @@ describe('POST /api/auth/sign-up', () => {
 		const before = await User.count();
 		const res = await call(signUpPost, { method: 'POST', routeId: '/api/auth/sign-up', body });
 		expect(res.status).toBe(status);
-		expect(await res.json()).toMatchObject({ field, message: expect.any(String) });
+		expect(await res.json()).toMatchObject({ error: { field, message: expect.any(String) } });
 		expect(await User.count()).toBe(before);
 	});
 
@@ -128,7 +128,7 @@ describe('POST /api/auth/sign-up', () => {
 			contentType: type
 		});
 		expect(res.status).toBe(status);
-		expect((await res.json()).message).toEqual(expect.any(String));
+		expect((await res.json()).error.message).toEqual(expect.any(String));
 	});
 });
 
@@ -226,7 +226,7 @@ describe('rate limits', () => {
 		const retryAfter = Number(limited.headers.get('Retry-After'));
 		expect(retryAfter).toBeGreaterThan(14 * 60);
 		expect(retryAfter).toBeLessThanOrEqual(15 * 60);
-		expect(await limited.json()).toMatchObject({ retryAfterSeconds: retryAfter });
+		expect(await limited.json()).toMatchObject({ error: { retryAfterSeconds: retryAfter } });
 	});
 
 	test('one client address is limited across many e-mails', async () => {
@@ -317,6 +317,6 @@ describe('the role gate in hooks.server.ts', () => {
 	test('admin APIs answer 401 JSON to an anonymous caller', async () => {
 		const res = await call(ok, { routeId: '/api/admin/health', path: '/api/admin/health' });
 		expect(res.status).toBe(401);
-		expect(await res.json()).toEqual({ message: 'Sign in first.' });
+		expect(await res.json()).toEqual({ error: { message: 'Sign in first.' } });
 	});
 });

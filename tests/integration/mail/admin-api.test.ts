@@ -142,12 +142,12 @@ describe('the admin JSON API', () => {
 		async (_name, handler, url, params) => {
 			expect(await call(handler, null, url, params)).toEqual({
 				status: 401,
-				body: { message: expect.stringContaining('Sign in') }
+				body: { error: { message: expect.stringContaining('Sign in') } }
 			});
 			for (const role of ['learner', 'teacher'] as const) {
 				expect(await call(handler, userWith(role), url, params)).toEqual({
 					status: 403,
-					body: { message: 'This endpoint is for admin accounts.' }
+					body: { error: { message: 'This endpoint is for admin accounts.' } }
 				});
 			}
 		}
@@ -178,7 +178,9 @@ describe('the admin JSON API', () => {
 			const answer = await call(getOutbox, userWith('admin'), `${base}/outbox?limit=${bad}`);
 			expect(answer).toEqual({
 				status: 400,
-				body: { message: `limit ${JSON.stringify(bad)} must be a whole number from 1 to 1000.` }
+				body: {
+					error: { message: `limit ${JSON.stringify(bad)} must be a whole number from 1 to 1000.` }
+				}
 			});
 		}
 	});
@@ -208,7 +210,7 @@ describe('the admin JSON API', () => {
 				id
 			});
 			expect(status).toBe(404);
-			expect(body.message).toMatch(/^No message .* in the outbox/);
+			expect(body.error.message).toMatch(/^No message .* in the outbox/);
 		}
 	);
 

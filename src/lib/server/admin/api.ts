@@ -1,4 +1,4 @@
-import { json } from '@sveltejs/kit';
+import { apiError } from '../http/json';
 
 /**
  * The admin JSON endpoints check the session themselves rather than trusting the route-group
@@ -6,10 +6,9 @@ import { json } from '@sveltejs/kit';
  * @example const refused = refuseNonAdmin(locals); if (refused) return refused;
  */
 export function refuseNonAdmin(locals: App.Locals): Response | null {
-	if (!locals.user)
-		return json({ message: 'Sign in as an admin to use this endpoint.' }, { status: 401 });
+	if (!locals.user) return apiError(401, 'Sign in as an admin to use this endpoint.');
 	if (locals.user.role !== 'admin') {
-		return json({ message: 'This endpoint is for admin accounts.' }, { status: 403 });
+		return apiError(403, 'This endpoint is for admin accounts.');
 	}
 	return null;
 }
@@ -29,9 +28,9 @@ export function readLimit(
 	if (!/^\d+$/.test(raw) || value < 1 || value > max) {
 		return {
 			ok: false,
-			response: json(
-				{ message: `limit ${JSON.stringify(raw)} must be a whole number from 1 to ${max}.` },
-				{ status: 400 }
+			response: apiError(
+				400,
+				`limit ${JSON.stringify(raw)} must be a whole number from 1 to ${max}.`
 			)
 		};
 	}

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { signIn } from '$lib/server/auth/accounts';
-import { readJsonObject, tooManyRequests } from '$lib/server/auth/json-body';
+import { apiError, readJsonObject, tooManyRequests } from '$lib/server/http/json';
 import { checkSignIn, recordSignInFailure, recordSignInSuccess } from '$lib/server/auth/limits';
 import { createSession, setSessionCookie } from '$lib/server/auth/session';
 import type { RequestHandler } from './$types';
@@ -20,10 +20,10 @@ export const POST: RequestHandler = async ({ request, cookies, getClientAddress 
 	const result = await signIn({ email, password });
 	if (!result.ok) {
 		if (result.reason === 'invalid') {
-			return json({ message: result.message, field: result.field }, { status: 422 });
+			return apiError(422, result.message, { field: result.field });
 		}
 		recordSignInFailure(address, email);
-		return json({ message: result.message }, { status: 401 });
+		return apiError(401, result.message);
 	}
 	recordSignInSuccess(email);
 	const { token, session } = await createSession(result.user.id);

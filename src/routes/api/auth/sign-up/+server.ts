@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { signUp } from '$lib/server/auth/accounts';
-import { readJsonObject, tooManyRequests } from '$lib/server/auth/json-body';
+import { apiError, readJsonObject, tooManyRequests } from '$lib/server/http/json';
 import { consumeSignUp } from '$lib/server/auth/limits';
 import type { RequestHandler } from './$types';
 
@@ -18,7 +18,7 @@ export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 	const result = await signUp(body.value);
 	if (!result.ok) {
 		const status = result.reason === 'email-taken' ? 409 : 422;
-		return json({ message: result.message, field: result.field }, { status });
+		return apiError(status, result.message, { field: result.field });
 	}
 	const { id, name, email, role, emailVerified } = result.user;
 	return json(

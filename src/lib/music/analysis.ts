@@ -280,7 +280,8 @@ function enclosures(notes: readonly SoundingNote[], degrees: (Degree | null)[]):
 		if (g && g.role !== 'chord-tone' && g.role !== 'tension') continue;
 		const how = (x: number) => (Math.abs(x) === 1 ? 'a half step' : 'a whole step');
 		const side = (x: number) => (x > 0 ? 'above' : 'below');
-		const name = (n: SoundingNote) => n.pitch;
+		// Letter names read better in a sentence than octave numbers (Bb, not Bb5).
+		const name = (n: SoundingNote) => n.pitch.replace(/-?\d+$/, '');
 		const chromatic =
 			Math.abs(first) === 1 && Math.abs(second) === 1 ? 'A chromatic enclosure' : 'An enclosure';
 		const targetName = g ? `the ${g.label} (${name(t)})` : name(t);

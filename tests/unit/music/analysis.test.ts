@@ -95,10 +95,10 @@ describe('analyseNotes: chromatic fills', () => {
 
 describe('analyseNotes: enclosures', () => {
 	it.each([
-		['G7', 'C5 A#4 B4', 'A chromatic enclosure of the 3 (B4)'],
-		['G7', 'A#4 C5 B4', 'A chromatic enclosure of the 3 (B4)'],
-		['D7', 'E4 C#4 D4', 'An enclosure of the R (D4)'],
-		['C7', 'E4 C#4 D4', 'An enclosure of the 9 (D4)']
+		['G7', 'C5 A#4 B4', 'A chromatic enclosure of the 3 (B)'],
+		['G7', 'A#4 C5 B4', 'A chromatic enclosure of the 3 (B)'],
+		['D7', 'E4 C#4 D4', 'An enclosure of the R (D)'],
+		['C7', 'E4 C#4 D4', 'An enclosure of the 9 (D)']
 	])('over %s finds in %s: %s', (chord, line, label) => {
 		const d = devicesOf(chord, line).find((x) => x.kind === 'enclosure')!;
 		expect(d).toMatchObject({ start: 0, end: 2 });

@@ -1,6 +1,7 @@
 import { expect, test } from '@playwright/test';
-import { newAccount, signInViaApi, signUpViaApi } from './support/accounts';
+import { newAccount, signInAsNewAdmin, signInViaApi, signUpViaApi } from './support/accounts';
 import { seriousViolations } from './support/axe';
+import { tabTo } from './support/keyboard';
 
 test.describe('axe-core finds no serious or critical violation', () => {
 	for (const scheme of ['light', 'dark'] as const) {
@@ -38,6 +39,55 @@ test.describe('axe-core finds no serious or critical violation', () => {
 				const response = await page.goto('/teach');
 				expect(response?.status()).toBe(403);
 				expect(await seriousViolations(page)).toEqual([]);
+			});
+
+			for (const { path, heading } of [
+				{ path: '/forgot-password', heading: 'Lost the changes?' },
+				{ path: '/reset-password?token=bad', heading: 'Choose a new password' },
+				{ path: '/verify-email?token=bad', heading: 'That link did not work' }
+			]) {
+				test(`on ${path}`, async ({ page }) => {
+					await page.goto(path);
+					await expect(page.getByRole('heading', { level: 1 })).toHaveText(heading);
+					expect(await seriousViolations(page)).toEqual([]);
+				});
+			}
+
+			test('on the settings of a learner', async ({ page, request }) => {
+				const learner = newAccount('learner');
+				await signUpViaApi(request, learner);
+				await signInViaApi(page, learner);
+				await page.goto('/settings');
+				await expect(page.getByRole('heading', { level: 1 })).toHaveText('Settings');
+				expect(await seriousViolations(page)).toEqual([]);
+				// A refused change shows its message beside the field.
+				await page.getByLabel('Current password').fill('not-my-password-1');
+				await page.getByLabel('New password', { exact: true }).fill('walking-bass-77');
+				await page.getByLabel('The new password again').fill('walking-bass-77');
+				await page.getByRole('button', { name: 'Save the new password' }).click();
+				await expect(page.getByLabel('Current password')).toHaveAttribute('aria-invalid', 'true');
+				expect(await seriousViolations(page)).toEqual([]);
+				// The delete confirmation is part of the page too.
+				await page.getByRole('button', { name: 'I want to delete my account' }).click();
+				await expect(page.getByLabel('Type your e-mail address to confirm')).toBeVisible();
+				expect(await seriousViolations(page)).toEqual([]);
+			});
+
+			test('on the admin overview, the outbox and one message', async ({ page, request }) => {
+				const admin = await signInAsNewAdmin(page, request);
+				await page.goto('/admin');
+				await expect(page.getByRole('heading', { level: 1 })).toHaveText('Overview');
+				expect(await seriousViolations(page), '/admin').toEqual([]);
+
+				await page.goto('/admin/outbox');
+				await expect(page.getByRole('heading', { level: 1 })).toHaveText('Outbox');
+				expect(await seriousViolations(page), '/admin/outbox').toEqual([]);
+
+				const row = page.getByRole('row').filter({ hasText: admin.email }).first();
+				await row.getByRole('link').click();
+				await expect(page).toHaveURL(/\/admin\/outbox\/[^/]+$/);
+				await expect(page.getByRole('heading', { name: 'Text part' })).toBeVisible();
+				expect(await seriousViolations(page), page.url()).toEqual([]);
 			});
 
 			test('on the try-it box with a result shown', async ({ page }) => {
@@ -92,7 +142,7 @@ test.describe('keyboard alone', () => {
 		await expect(email).toBeFocused();
 		await page.keyboard.type(learner.email);
 		await page.keyboard.press('Tab');
-		await expect(page.getByLabel('Password')).toBeFocused();
+		await expect(page.getByLabel('Password', { exact: true })).toBeFocused();
 		await page.keyboard.type(learner.password);
 		await page.keyboard.press('Enter');
 		await expect(page).toHaveURL(/\/home$/);
@@ -110,5 +160,72 @@ test.describe('keyboard alone', () => {
 		expect(await page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(
 			!before
 		);
+	});
+
+	test('an admin tabs to the outbox and opens a message with Enter', async ({ page, request }) => {
+		const admin = await signInAsNewAdmin(page, request);
+		await page.goto('/admin');
+
+		await tabTo(page, page.getByRole('link', { name: 'Open the outbox' }));
+		await page.keyboard.press('Enter');
+		await expect(page).toHaveURL(/\/admin\/outbox$/);
+
+		const subject = page
+			.getByRole('row')
+			.filter({ hasText: admin.email })
+			.first()
+			.getByRole('link');
+		const title = (await subject.textContent())?.trim() ?? '';
+		expect(title).not.toBe('');
+		await tabTo(page, subject, 40);
+		await page.keyboard.press('Enter');
+		await expect(page).toHaveURL(/\/admin\/outbox\/[^/]+$/);
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(title);
+		await expect(page.getByText(admin.email).first()).toBeVisible();
+
+		// And back to the list the same way.
+		await tabTo(page, page.getByRole('link', { name: '← Outbox' }));
+		await page.keyboard.press('Enter');
+		await expect(page).toHaveURL(/\/admin\/outbox$/);
+	});
+
+	test('a learner changes their password on Settings with the keyboard, then signs in with it', async ({
+		page,
+		request
+	}) => {
+		const learner = newAccount('learner');
+		await signUpViaApi(request, learner);
+		await signInViaApi(page, learner);
+		const newPassword = 'walking-bass-77';
+
+		await page.goto('/settings');
+		await tabTo(page, page.getByLabel('Current password'));
+		await page.keyboard.type(learner.password);
+		await page.keyboard.press('Tab');
+		await expect(page.getByLabel('New password', { exact: true })).toBeFocused();
+		await page.keyboard.type(newPassword);
+		await page.keyboard.press('Tab');
+		await expect(page.getByLabel('The new password again')).toBeFocused();
+		await page.keyboard.type(newPassword);
+		await page.keyboard.press('Tab');
+		await expect(page.getByRole('button', { name: 'Save the new password' })).toBeFocused();
+		await page.keyboard.press('Enter');
+		await expect(page).toHaveURL(/\/settings\?changed=password$/);
+		await expect(page.getByText('Password changed.')).toBeVisible();
+
+		// A fresh browser: the old password is refused, the new one lets the learner in.
+		await page.context().clearCookies();
+		const old = await page.request.post('/api/auth/sign-in', {
+			data: { email: learner.email, password: learner.password }
+		});
+		expect(old.status()).toBe(401);
+		await page.goto('/sign-in');
+		await tabTo(page, page.getByLabel('E-mail address'));
+		await page.keyboard.type(learner.email);
+		await page.keyboard.press('Tab');
+		await page.keyboard.type(newPassword);
+		await page.keyboard.press('Enter');
+		await expect(page).toHaveURL(/\/home$/);
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText('Hello, Lou');
 	});
 });

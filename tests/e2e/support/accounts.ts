@@ -1,6 +1,7 @@
 import { execFileSync } from 'node:child_process';
 import { expect, type APIRequestContext, type Page } from '@playwright/test';
 import { E2E_DATA_DIR } from './env';
+import { newestMailTo } from './outbox';
 
 export type Role = 'learner' | 'teacher';
 export interface Account {
@@ -46,4 +47,21 @@ export function promoteToAdmin(email: string): void {
 		env: { ...process.env, DATA_DIR: E2E_DATA_DIR },
 		stdio: 'pipe'
 	});
+}
+
+/**
+ * A fresh account made admin with the CLI and signed in in `page`. Its sign-up mail is in the
+ * outbox once this returns, so the outbox screens have a message of the admin's own to show.
+ */
+export async function signInAsNewAdmin(
+	page: Page,
+	request: APIRequestContext,
+	name = 'Ada Quill'
+): Promise<Account> {
+	const admin = newAccount('learner', name);
+	await signUpViaApi(request, admin);
+	promoteToAdmin(admin.email);
+	await signInViaApi(page, admin);
+	await newestMailTo(admin.email);
+	return admin;
 }

@@ -1,5 +1,11 @@
 import { expect, test } from '@playwright/test';
-import { newAccount, promoteToAdmin, signInViaApi, signUpViaApi } from './support/accounts';
+import {
+	newAccount,
+	promoteToAdmin,
+	signInAsNewAdmin,
+	signInViaApi,
+	signUpViaApi
+} from './support/accounts';
 import { linkIn, newestMailTo } from './support/outbox';
 
 test('a learner signs up with the form, confirms the address from the mailed link, signs out and back in', async ({
@@ -125,6 +131,30 @@ test.describe('on a phone-sized screen', () => {
 		// Nothing sticks out sideways.
 		const overflow = await page.evaluate(() => document.documentElement.scrollWidth - innerWidth);
 		expect(overflow).toBeLessThanOrEqual(0);
+	});
+
+	test('the admin tables fit the screen: no control or cell needs a sideways scroll', async ({
+		page,
+		request
+	}) => {
+		await signUpViaApi(request, newAccount('teacher'));
+		await signInAsNewAdmin(page, request);
+		for (const path of ['/admin', '/admin/outbox']) {
+			await page.goto(path);
+			await expect(page.getByRole('table')).toBeVisible();
+			// Every visible cell ends inside the viewport (the tables' scroll boxes hide overflow).
+			const widest = await page
+				.getByRole('table')
+				.evaluate((table) =>
+					Math.max(
+						...[...table.querySelectorAll('th, td, select, button, a')]
+							.filter((el) => el.getClientRects().length > 0)
+							.map((el) => el.getBoundingClientRect().right)
+					)
+				);
+			expect(widest, path).toBeLessThanOrEqual(390);
+		}
+		await expect(page.getByRole('link', { name: /Confirm your e-mail/ }).first()).toBeVisible();
 	});
 });
 

@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { newAccount, signInViaApi, signUpViaApi } from './support/accounts';
+import { newAccount, signInAsNewAdmin, signInViaApi, signUpViaApi } from './support/accounts';
 
 /**
  * Screenshots for the README (docs/screenshots/). Run on demand, since they rewrite tracked
@@ -47,6 +47,31 @@ for (const view of [
 				path: `${dir}/learner-home${view.suffix}.png`,
 				fullPage: view.width > 500
 			});
+		});
+
+		test('the empty teacher home', async ({ page, request }) => {
+			const teacher = newAccount('teacher');
+			await signUpViaApi(request, teacher);
+			await signInViaApi(page, teacher);
+			await page.goto('/teach');
+			await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+			await settle(page);
+			await page.screenshot({
+				path: `${dir}/teacher-home${view.suffix}.png`,
+				fullPage: view.width > 500
+			});
+		});
+
+		test('the admin outbox with a few sign-up mails', async ({ page, request }) => {
+			// Two more people sign up first, so the outbox lists more than the admin's own mail.
+			for (const account of [newAccount('teacher'), newAccount('learner', 'Ravi Okafor')]) {
+				await signUpViaApi(request, account);
+			}
+			await signInAsNewAdmin(page, request);
+			await page.goto('/admin/outbox');
+			await expect(page.getByRole('link', { name: /Confirm your e-mail/ }).nth(2)).toBeVisible();
+			await settle(page);
+			await page.screenshot({ path: `${dir}/admin-outbox${view.suffix}.png` });
 		});
 	});
 }

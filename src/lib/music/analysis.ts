@@ -210,8 +210,8 @@ function describeArpeggio(
 	const sound = chord.quality ? SOUNDS[chord.quality]?.[key] : undefined;
 	const colours = [
 		...new Set(degrees.slice(a, b + 1).filter((d) => d && d.role !== 'chord-tone'))
-	].map((d) => `the ${d!.label}`);
-	const from = degrees[up ? a : a + named.length - 1]?.label;
+	].map((d) => `the ${spoken(d!.label)}`);
+	const from = spoken(degrees[up ? a : a + named.length - 1]?.label);
 	return {
 		...base,
 		degrees: labels,
@@ -260,8 +260,8 @@ function chromaticFills(notes: readonly SoundingNote[], degrees: (Degree | null)
 			end: notes[b].index,
 			degrees: labels,
 			label:
-				`A chromatic fill of the ${size} from the ${labels[0]} ${d < 0 ? 'down' : 'up'} to the ` +
-				`${labels[labels.length - 1]} of ${chord.symbol} (${names.join(' ')}: ${labels.join(' ')})${beats}.`
+				`A chromatic fill of the ${size} from the ${spoken(labels[0])} ${d < 0 ? 'down' : 'up'} to the ` +
+				`${spoken(labels[labels.length - 1])} of ${chord.symbol} (${names.join(' ')}: ${labels.join(' ')})${beats}.`
 		});
 		a = b - 1;
 	}
@@ -284,7 +284,7 @@ function enclosures(notes: readonly SoundingNote[], degrees: (Degree | null)[]):
 		const name = (n: SoundingNote) => n.pitch.replace(/-?\d+$/, '');
 		const chromatic =
 			Math.abs(first) === 1 && Math.abs(second) === 1 ? 'A chromatic enclosure' : 'An enclosure';
-		const targetName = g ? `the ${g.label} (${name(t)})` : name(t);
+		const targetName = g ? `the ${spoken(g.label)} (${name(t)})` : name(t);
 		out.push({
 			kind: 'enclosure',
 			start: notes[i].index,
@@ -296,6 +296,11 @@ function enclosures(notes: readonly SoundingNote[], degrees: (Degree | null)[]):
 		});
 	}
 	return out;
+}
+
+/** A degree as a sentence says it: the root by name, the others by number (`the 9`). */
+function spoken(label: DegreeLabel | undefined): string {
+	return label === 'R' ? 'root' : (label ?? '');
 }
 
 function leaps(notes: readonly SoundingNote[]): Device[] {

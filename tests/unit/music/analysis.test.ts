@@ -69,7 +69,7 @@ describe('analyseNotes: chromatic fills', () => {
 			end: 4,
 			degrees: ['3', '#9', '9', 'b9', 'R']
 		});
-		expect(d.label).toContain('major third from the 3 down to the R');
+		expect(d.label).toContain('major third from the 3 down to the root');
 		expect(d.label).toContain('fall on a beat');
 	});
 
@@ -97,7 +97,7 @@ describe('analyseNotes: enclosures', () => {
 	it.each([
 		['G7', 'C5 A#4 B4', 'A chromatic enclosure of the 3 (B)'],
 		['G7', 'A#4 C5 B4', 'A chromatic enclosure of the 3 (B)'],
-		['D7', 'E4 C#4 D4', 'An enclosure of the R (D)'],
+		['D7', 'E4 C#4 D4', 'An enclosure of the root (D)'],
 		['C7', 'E4 C#4 D4', 'An enclosure of the 9 (D)']
 	])('over %s finds in %s: %s', (chord, line, label) => {
 		const d = devicesOf(chord, line).find((x) => x.kind === 'enclosure')!;

@@ -53,9 +53,17 @@ describe('where sign-in may send you next', () => {
 		['javascript:alert(1)', '/home'],
 		['/ok\nSet-Cookie: x', '/home'],
 		['', '/home'],
-		[null, '/home']
+		[null, '/home'],
+		['/☃?key=é#top', '/%E2%98%83?key=%C3%A9#top'],
+		['/teach/../admin', '/admin']
 	])('safeNext(%j) is %j', (next, expected) => {
 		expect(safeNext(next)).toBe(expected);
+	});
+
+	test('a next beyond Latin-1 still makes a valid Location header', () => {
+		// The Fetch standard's Headers accept ByteStrings only; `/☃` raw would throw here.
+		const response = new Response(null, { status: 303, headers: { location: safeNext('/☃') } });
+		expect(response.headers.get('location')).toBe('/%E2%98%83');
 	});
 
 	test('the sign-in link carries the page asked for', () => {

@@ -13,7 +13,8 @@ export function signInUrl(url: URL): string {
 
 /**
  * A `next` parameter made safe to redirect to: only a path on this site, never `//other.host`
- * or `https://…`.
+ * or `https://…`. It comes back percent-encoded, because a Location header holding a character
+ * beyond Latin-1 (`/☃`) makes the Response constructor throw, and the redirect would become a 500.
  *
  * @example safeNext('/teach/decks') // → '/teach/decks'; safeNext('//evil.test') // → '/home'
  */
@@ -22,5 +23,9 @@ export function safeNext(value: string | null | undefined, fallback = '/home'): 
 		return fallback;
 	}
 	// eslint-disable-next-line no-control-regex
-	return /[\u0000-\u001f]/.test(value) ? fallback : value;
+	if (/[\u0000-\u001f]/.test(value)) return fallback;
+	const base = 'http://same.site.invalid';
+	const resolved = new URL(value, base);
+	if (resolved.origin !== base) return fallback;
+	return resolved.pathname + resolved.search + resolved.hash;
 }

@@ -173,8 +173,3 @@ export function shiftPlan(
 export function transposeInKey(p: SpelledPitch, by: Steps, key: KeySignature): SpelledPitch {
 	return simplifySpelling(transposePitch(p, by), key.accidentals);
 }
-
-/** Semitones in an interval reduced to a pitch-class shift, for quick checks. */
-export function chromaShift(by: Steps): number {
-	return ((by.semitones % 12) + 12) % 12;
-}

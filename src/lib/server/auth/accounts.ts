@@ -446,10 +446,3 @@ export async function promote(emailInput: unknown, role: unknown): Promise<Promo
 export function promoteToAdmin(email: unknown): Promise<PromoteResult> {
 	return promote(email, 'admin');
 }
-
-/** A user by id, for `/api/me` and pages; null when gone. */
-export async function findUser(userId: string): Promise<SessionUser | null> {
-	getDb();
-	const user = await User.findByPk(userId);
-	return user ? toSessionUser(user) : null;
-}

@@ -1,4 +1,4 @@
-import { createHash, randomBytes, timingSafeEqual } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 
 /**
  * A fresh secret for a link or a session: 32 random bytes, base64url (43 characters).
@@ -17,11 +17,4 @@ export function createToken(): string {
  */
 export function hashToken(token: string): string {
 	return createHash('sha256').update(token, 'utf8').digest('hex');
-}
-
-/** Constant-time comparison of two hex hashes of equal length. */
-export function sameHash(a: string, b: string): boolean {
-	const left = Buffer.from(a, 'utf8');
-	const right = Buffer.from(b, 'utf8');
-	return left.length === right.length && timingSafeEqual(left, right);
 }

@@ -169,7 +169,10 @@ export async function invalidateSession(sessionId: string): Promise<void> {
 	await Session.destroy({ where: { id: sessionId } });
 }
 
-/** End every session of a user (after a password change or reset). */
+/**
+ * End every session of a user, through lucia. A password change or reset does not call this: it
+ * deletes the sessions inside its own transaction, so the new hash and the sign-outs land together.
+ */
 export async function invalidateUserSessions(userId: string): Promise<void> {
 	await getLucia().invalidateUserSessions(userId);
 }

@@ -224,7 +224,6 @@ export async function readMessage(id: unknown, dir = outboxDir()): Promise<ReadM
 			...summarise(id, mail),
 			html,
 			text,
-			// One row per header name, in the order of the message; repeats are joined.
 			headers: headerRows(mail),
 			links: findLinks(text, html)
 		}

@@ -12,7 +12,9 @@ const SIGN = { b: '♭', '#': '♯' } as const;
 export function noteForDisplay(pitch: string): string {
 	const m = /^([A-Ga-g])(bb|##|b|#|)(-?\d+)?$/.exec(pitch.trim());
 	if (!m) return pitch;
-	const accidental = { bb: '𝄫', '##': '𝄪', b: '♭', '#': '♯', '': '' }[
+	// Two signs rather than U+1D12B/U+1D12A: Nunito and most system fonts have no glyph for the
+	// musical-symbols block, so 𝄫 would show as an empty box.
+	const accidental = { bb: '♭♭', '##': '♯♯', b: '♭', '#': '♯', '': '' }[
 		m[2] as 'bb' | '##' | 'b' | '#' | ''
 	];
 	return m[1].toUpperCase() + accidental;
@@ -35,7 +37,7 @@ export function chordForDisplay(symbol: string): string {
  */
 export function degreeForDisplay(label: string | null): string {
 	if (!label) return '–';
-	return label.replace(/^bb/, '𝄫').replace(/^b/, '♭').replace(/^#/, '♯');
+	return label.replace(/^bb/, '♭♭').replace(/^b/, '♭').replace(/^#/, '♯');
 }
 
 /**

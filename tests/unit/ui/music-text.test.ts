@@ -12,8 +12,8 @@ describe('noteForDisplay', () => {
 		['Bb4', 'B♭'],
 		['F#5', 'F♯'],
 		['C4', 'C'],
-		['Ebb3', 'E𝄫'],
-		['G##2', 'G𝄪'],
+		['Ebb3', 'E♭♭'],
+		['G##2', 'G♯♯'],
 		['Db', 'D♭'],
 		['', ''],
 		['not a note', 'not a note']
@@ -41,7 +41,7 @@ describe('degreeForDisplay', () => {
 	it.each([
 		['b9', '♭9'],
 		['#11', '♯11'],
-		['bb7', '𝄫7'],
+		['bb7', '♭♭7'],
 		['R', 'R'],
 		['13', '13'],
 		[null, '–']

@@ -11,7 +11,7 @@ import { migrate } from '$lib/server/db/migrate';
 import { startMail, stopMail } from '$lib/server/mail';
 import { closeDb } from '$lib/server/db';
 import { signInUrl } from '$lib/server/auth/redirects';
-import { apiError } from '$lib/server/http/json';
+import { refuseNonAdmin } from '$lib/server/admin/api';
 import {
 	deleteSessionCookie,
 	readSessionToken,
@@ -56,10 +56,8 @@ export const handleRoleGate: Handle = async ({ event, resolve }) => {
 	const user = event.locals.user;
 
 	if (id.startsWith('/api/admin')) {
-		if (!user) return apiError(401, 'Sign in first.');
-		if (user.role !== 'admin') {
-			return apiError(403, 'Only admins may use this endpoint.');
-		}
+		const refused = refuseNonAdmin(event.locals);
+		if (refused) return refused;
 	} else if (id.startsWith('/(admin)')) {
 		if (!user) redirect(303, signInUrl(event.url));
 		if (user.role !== 'admin') error(403, 'This page is for admins.');

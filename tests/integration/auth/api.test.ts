@@ -319,4 +319,17 @@ describe('the role gate in hooks.server.ts', () => {
 		expect(res.status).toBe(401);
 		expect(await res.json()).toEqual({ error: { message: 'Sign in first.' } });
 	});
+
+	test('admin APIs refuse a learner with the same 403 JSON as the endpoints themselves', async () => {
+		const { cookies } = await signUpAndIn('learner');
+		const res = await call(ok, {
+			routeId: '/api/admin/health',
+			path: '/api/admin/health',
+			cookies
+		});
+		expect(res.status).toBe(403);
+		expect(await res.json()).toEqual({
+			error: { message: 'This endpoint is for admin accounts.' }
+		});
+	});
 });

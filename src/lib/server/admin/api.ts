@@ -1,12 +1,13 @@
 import { apiError } from '../http/json';
 
 /**
- * The admin JSON endpoints check the session themselves rather than trusting the route-group
- * gate: 401 without a session, 403 for any role but admin.
+ * The admin JSON endpoints' refusal, 401 without a session and 403 for any role but admin. The
+ * role hook answers with it for every `/api/admin` route, and each endpoint asks again itself
+ * rather than trusting that the hook ran.
  * @example const refused = refuseNonAdmin(locals); if (refused) return refused;
  */
 export function refuseNonAdmin(locals: App.Locals): Response | null {
-	if (!locals.user) return apiError(401, 'Sign in as an admin to use this endpoint.');
+	if (!locals.user) return apiError(401, 'Sign in first.');
 	if (locals.user.role !== 'admin') {
 		return apiError(403, 'This endpoint is for admin accounts.');
 	}

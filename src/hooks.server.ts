@@ -76,11 +76,9 @@ export const handle = sequence(handleSession, handleRoleGate);
 
 /** Unexpected errors: logged in full here, a plain sentence for the person who hit them. */
 export const handleError: HandleServerError = ({ error: caught, event, status, message }) => {
-	if (status !== 404) {
-		console.error(`[${event.request.method} ${event.url.pathname}]`, caught);
-	}
-	return {
-		message:
-			status === 404 ? message : 'Something went wrong on our side. Please try again in a moment.'
-	};
+	// Below 500 the request was at fault (no such page, a wrong method, a JSON body sent to a form
+	// action): Kit's short text ("Unsupported Media Type") says so, and there is no fault to log.
+	if (status < 500) return { message };
+	console.error(`[${event.request.method} ${event.url.pathname}]`, caught);
+	return { message: 'Something went wrong on our side. Please try again in a moment.' };
 };

@@ -1,9 +1,9 @@
-import { afterAll, beforeAll, beforeEach, describe, expect, test } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, test, vi } from 'vitest';
 import { isHttpError, isRedirect } from '@sveltejs/kit';
 import { configureAuthLimits } from '../../../src/lib/server/auth/limits';
 import { SESSION_COOKIE_NAME } from '../../../src/lib/server/auth/session';
 import { User } from '../../../src/lib/server/db/models/index';
-import { handleRoleGate, handleSession } from '../../../src/hooks.server';
+import { handleError, handleRoleGate, handleSession } from '../../../src/hooks.server';
 import { POST as signUpPost } from '../../../src/routes/api/auth/sign-up/+server';
 import { POST as signInPost } from '../../../src/routes/api/auth/sign-in/+server';
 import { POST as signOutPost } from '../../../src/routes/api/auth/sign-out/+server';
@@ -331,5 +331,38 @@ describe('the role gate in hooks.server.ts', () => {
 		expect(await res.json()).toEqual({
 			error: { message: 'This endpoint is for admin accounts.' }
 		});
+	});
+});
+
+describe('handleError in hooks.server.ts', () => {
+	const report = (status: number, message: string) =>
+		handleError({
+			error: new Error('the detail'),
+			event: fakeEvent({ method: 'POST', path: '/sign-in' }) as never,
+			status,
+			message
+		});
+
+	test.each([
+		[404, 'Not Found'],
+		[405, 'Method Not Allowed'],
+		[415, 'Unsupported Media Type']
+	])('a %i keeps Kit’s own text and logs nothing: the request was at fault', (status, text) => {
+		const log = vi.spyOn(console, 'error').mockImplementation(() => {});
+		expect(report(status, text)).toEqual({ message: text });
+		expect(log).not.toHaveBeenCalled();
+		log.mockRestore();
+	});
+
+	test('a 500 is logged in full and answered with a plain sentence, never the detail', () => {
+		const log = vi.spyOn(console, 'error').mockImplementation(() => {});
+		expect(report(500, 'Internal Error')).toEqual({
+			message: 'Something went wrong on our side. Please try again in a moment.'
+		});
+		expect(log).toHaveBeenCalledWith(
+			'[POST /sign-in]',
+			expect.objectContaining({ message: 'the detail' })
+		);
+		log.mockRestore();
 	});
 });

@@ -105,6 +105,36 @@ async function issueToken(userId: string, purpose: TokenPurpose, now: Date): Pro
 
 export type TokenProblem = { ok: false; reason: 'bad-token'; message: string };
 
+function badToken(message: string): TokenProblem {
+	return { ok: false, reason: 'bad-token', message };
+}
+
+function isTokenShaped(token: unknown): token is string {
+	return typeof token === 'string' && token.length >= 20 && token.length <= 200;
+}
+
+/** Why a stored token cannot be used at `now`, or null when it can. */
+function tokenProblem(row: EmailToken | null, now: Date): TokenProblem | null {
+	if (!row) return badToken('This link is not valid.');
+	if (row.usedAt) return badToken('This link has already been used or replaced by a newer one.');
+	if (row.expiresAt.getTime() <= now.getTime()) return badToken('This link has expired.');
+	return null;
+}
+
+/**
+ * Why a token cannot be used, or null when it could be right now; reads and marks nothing. For
+ * callers with expensive work to do before `consumeToken`, which checks again.
+ */
+async function checkToken(
+	token: unknown,
+	purpose: TokenPurpose,
+	now: Date
+): Promise<TokenProblem | null> {
+	if (!isTokenShaped(token)) return badToken('This link is incomplete or malformed.');
+	getDb();
+	return tokenProblem(await EmailToken.findOne({ where: { id: hashToken(token), purpose } }), now);
+}
+
 /** Mark a token used and return its user id, or say why it cannot be used. */
 async function consumeToken(
 	token: unknown,
@@ -112,31 +142,19 @@ async function consumeToken(
 	now: Date,
 	then: (userId: string, transaction: import('sequelize').Transaction) => Promise<void>
 ): Promise<{ ok: true; userId: string } | TokenProblem> {
-	if (typeof token !== 'string' || token.length < 20 || token.length > 200) {
-		return { ok: false, reason: 'bad-token', message: 'This link is incomplete or malformed.' };
-	}
+	if (!isTokenShaped(token)) return badToken('This link is incomplete or malformed.');
 	return getDb().transaction(async (transaction) => {
 		const row = await EmailToken.findOne({
 			where: { id: hashToken(token), purpose },
 			transaction
 		});
-		if (!row) {
-			return { ok: false, reason: 'bad-token', message: 'This link is not valid.' } as const;
-		}
-		if (row.usedAt) {
-			return {
-				ok: false,
-				reason: 'bad-token',
-				message: 'This link has already been used or replaced by a newer one.'
-			} as const;
-		}
-		if (row.expiresAt.getTime() <= now.getTime()) {
-			return { ok: false, reason: 'bad-token', message: 'This link has expired.' } as const;
-		}
-		row.usedAt = now;
-		await row.save({ transaction });
-		await then(row.userId, transaction);
-		return { ok: true, userId: row.userId } as const;
+		const problem = tokenProblem(row, now);
+		if (problem) return problem;
+		const usable = row as EmailToken; // tokenProblem refuses a missing row
+		usable.usedAt = now;
+		await usable.save({ transaction });
+		await then(usable.userId, transaction);
+		return { ok: true, userId: usable.userId } as const;
 	});
 }
 
@@ -332,6 +350,11 @@ export async function resetPassword(
 	if (typeof password !== 'string') return invalid('password', 'Enter a new password.');
 	const strength = checkPasswordStrength(password);
 	if (!strength.ok) return invalid('password', strength.message);
+	// The form is public and not rate limited: a made-up token is turned away before it can cost
+	// an argon2 hash (19 MiB, tens of milliseconds). The hash stays outside the transaction, which
+	// would otherwise hold SQLite's write lock while it runs.
+	const problem = await checkToken(token, 'reset', now);
+	if (problem) return problem;
 	const passwordHash = await hashPassword(password);
 	return consumeToken(token, 'reset', now, async (userId, transaction) => {
 		const user = await User.findByPk(userId, { transaction });

@@ -7,7 +7,7 @@ import { chordTemplate, emitAbc, transposeChordSymbol } from './abc/emit';
 import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
-import { degreeAt, readNote, type DegreeLabel } from './degrees';
+import { degreeAt, readNote, type Degree, type DegreeLabel } from './degrees';
 import { remapNotes } from './remap';
 import { analyseNotes, type Device } from './analysis';
 import {
@@ -54,6 +54,8 @@ export interface VariantNote {
 	duration: number;
 	/** Degree over the chord in force (by semitones above its root), null without a chord. */
 	degree: DegreeLabel | null;
+	/** What that degree is over the chord's quality (a tension, a chord tone…); null without one. */
+	role: Degree['role'] | null;
 	chord: ChordContext | null;
 }
 
@@ -436,13 +438,15 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		// The chord in force is the same symbol as in the source, now moved.
 		const ci = lick.chordOfNote[h.sounding];
 		const chord = ci < 0 ? null : concertChords.contexts[ci];
+		const degree = chord ? degreeAt(midi - concertChords.rootChromas[ci], chord.quality) : null;
 		notes[h.sounding] = {
 			index: src.index,
 			pitch: formatPitch(p),
 			midi,
 			start: src.start,
 			duration: src.duration,
-			degree: chord ? degreeAt(midi - concertChords.rootChromas[ci], chord.quality).label : null,
+			degree: degree?.label ?? null,
+			role: degree?.role ?? null,
 			chord
 		};
 	}

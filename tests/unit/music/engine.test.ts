@@ -73,6 +73,30 @@ describe('computeVariant', () => {
 		expect(v.notes.map((n) => n.degree)).toEqual(['b9', '#9', '11', 'b13', '13']);
 	});
 
+	it('says what each degree is over the chord quality: chord tone, tension, avoid or chromatic', () => {
+		// Common practice (Dorian over m7, Mixolydian over 7); tonal 6.5.1 Chord.get('Cm7').notes is
+		// C Eb G Bb and Scale.get('C dorian').notes C D Eb F G A Bb, so E, Gb and B lie outside both.
+		const minor = variant(HEAD + 'K:C\n"Cm7"C E _E G _G =B _B d f|\n');
+		expect(minor.notes.map((n) => [n.degree, n.role])).toEqual([
+			['R', 'chord-tone'],
+			['3', 'chromatic'],
+			['b3', 'chord-tone'],
+			['5', 'chord-tone'],
+			['b5', 'chromatic'],
+			['7', 'chromatic'],
+			['b7', 'chord-tone'],
+			['9', 'tension'],
+			['11', 'tension']
+		]);
+		// Over a dominant the 11 is the avoid note; before the first chord there is no degree at all.
+		const dominant = variant(HEAD + 'K:C\nC "C7"E F|\n');
+		expect(dominant.notes.map((n) => [n.degree, n.role])).toEqual([
+			[null, null],
+			['3', 'chord-tone'],
+			['11', 'avoid']
+		]);
+	});
+
 	it('re-maps over another quality and renames the chord symbol', () => {
 		const v = variant(HEAD + 'K:C\n"D7"^F2 A2 c2 d2|\n', { quality: 'm7' });
 		expect(v.abc).toContain('"Dm7"F2 A2 c2 d2|');

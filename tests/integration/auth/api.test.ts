@@ -229,6 +229,41 @@ describe('rate limits', () => {
 		expect(await limited.json()).toMatchObject({ error: { retryAfterSeconds: retryAfter } });
 	});
 
+	test('parallel tries cannot outrun the count: each is a failure until its password is checked', async () => {
+		configureAuthLimits({ signInEmail: { max: 3, windowMs: 60_000 } });
+		const { email } = await signUpAndIn();
+		const burst = await Promise.all(
+			Array.from({ length: 8 }, (_, i) =>
+				call(signInPost, {
+					method: 'POST',
+					routeId: '/api/auth/sign-in',
+					body: { email, password: 'wrong-guess-00' },
+					address: `198.51.100.${i + 10}`
+				})
+			)
+		);
+		const statuses = burst.map((res) => res.status).sort();
+		expect(statuses).toEqual([401, 401, 401, 429, 429, 429, 429, 429]);
+	});
+
+	test('a try refused for a missing field counts nothing, and a success frees its slot', async () => {
+		configureAuthLimits({ signInAddress: { max: 2, windowMs: 60_000 } });
+		const { email } = await signUpAndIn();
+		const attempt = (body: Record<string, string>) =>
+			call(signInPost, {
+				method: 'POST',
+				routeId: '/api/auth/sign-in',
+				body,
+				address: '192.0.2.9'
+			});
+		for (let i = 0; i < 3; i++) expect((await attempt({ email })).status).toBe(422);
+		for (let i = 0; i < 3; i++)
+			expect((await attempt({ email, password: PASSWORD })).status).toBe(200);
+		expect((await attempt({ email, password: 'wrong-guess-00' })).status).toBe(401);
+		expect((await attempt({ email, password: 'wrong-guess-00' })).status).toBe(401);
+		expect((await attempt({ email, password: PASSWORD })).status).toBe(429);
+	});
+
 	test('one client address is limited across many e-mails', async () => {
 		configureAuthLimits({ signInAddress: { max: 3, windowMs: 60_000 } });
 		const statuses = [];

@@ -43,6 +43,18 @@ describe('createRateLimiter', () => {
 		expect(limiter.consume('b', 3).allowed).toBe(true);
 	});
 
+	test('release takes back one hit of a key at its time and leaves the others', () => {
+		const limiter = createRateLimiter({ max: 2, windowMs: 60_000 });
+		limiter.consume('k', 0);
+		limiter.consume('k', 1_000);
+		expect(limiter.peek('k', 2_000).allowed).toBe(false);
+		limiter.release('k', 1_000);
+		limiter.release('k', 5_000); // never counted: nothing to take back
+		limiter.release('other', 0);
+		expect(limiter.consume('k', 2_000)).toEqual({ allowed: true, retryAfterSeconds: 0 });
+		expect(limiter.consume('k', 3_000)).toEqual({ allowed: false, retryAfterSeconds: 57 });
+	});
+
 	test('peek answers like consume would but counts nothing', () => {
 		const limiter = createRateLimiter({ max: 1, windowMs: 60_000 });
 		expect(limiter.peek('k', 0)).toEqual({ allowed: true, retryAfterSeconds: 0 });

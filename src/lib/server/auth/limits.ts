@@ -11,7 +11,10 @@ import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from './
  * | password reset  | 10 requests / hour        | 3 requests / hour        |
  * | new verify link | –                         | 3 per account / hour     |
  *
- * Sign-in counts failures only, and a success clears that e-mail's count. `AUTH_LIMIT_SCALE`
+ * Sign-in counts failures only, and a success clears that e-mail's count. A try counts as a
+ * failure from the moment it starts (`beginSignIn`) until it is known to be none: checking a
+ * password takes an argon2 hash, and a burst of parallel tries must not all pass the check before
+ * the first failure is counted. `AUTH_LIMIT_SCALE`
  * (default 1) multiplies every maximum, for load tests or a school behind one NAT address.
  */
 const MINUTE = 60_000;
@@ -74,22 +77,47 @@ function emailKey(email: unknown): string {
 	return typeof email === 'string' ? email.trim().toLowerCase().slice(0, 254) : '';
 }
 
-/** May this client try to sign in to this address now? Counts nothing. */
-export function checkSignIn(address: string, email: unknown, now = Date.now()): LimitVerdict {
-	const l = get();
-	return worst(l.signInAddress.peek(address, now), l.signInEmail.peek(emailKey(email), now));
+/** A sign-in try under way, counted as a failure until it is known to be none. */
+export interface SignInAttempt {
+	address: string;
+	email: unknown;
+	/** When its provisional failure was counted. */
+	at: number;
 }
 
-/** Count a failed sign-in against both keys. */
-export function recordSignInFailure(address: string, email: unknown, now = Date.now()): void {
+/**
+ * May this client try to sign in to this address now? If so the try is counted as a failure
+ * straight away; a refused try counts nothing. Follow it with `recordSignInSuccess` or
+ * `cancelSignIn` unless the password was wrong.
+ */
+export function beginSignIn(
+	address: string,
+	email: unknown,
+	now = Date.now()
+): ({ allowed: true } & SignInAttempt) | { allowed: false; retryAfterSeconds: number } {
 	const l = get();
+	const verdict = worst(
+		l.signInAddress.peek(address, now),
+		l.signInEmail.peek(emailKey(email), now)
+	);
+	if (!verdict.allowed) return verdict;
 	l.signInAddress.consume(address, now);
 	l.signInEmail.consume(emailKey(email), now);
+	return { allowed: true, address, email, at: now };
+}
+
+/** The try never got as far as a password (a field was missing): it counts as nothing. */
+export function cancelSignIn({ address, email, at }: SignInAttempt): void {
+	const l = get();
+	l.signInAddress.release(address, at);
+	l.signInEmail.release(emailKey(email), at);
 }
 
 /** A successful sign-in clears the failures of that e-mail (not those of the client address). */
-export function recordSignInSuccess(email: unknown): void {
-	get().signInEmail.reset(emailKey(email));
+export function recordSignInSuccess({ address, email, at }: SignInAttempt): void {
+	const l = get();
+	l.signInAddress.release(address, at);
+	l.signInEmail.reset(emailKey(email));
 }
 
 /** Count a sign-up attempt; refused when either key is over its limit. */

@@ -21,6 +21,8 @@ export interface RateLimiter {
 	peek(key: string, now?: number): RateLimitResult;
 	/** Forget the hits of one key (after a successful sign-in) or of all keys. */
 	reset(key?: string): void;
+	/** Take back one hit of `key` counted at `at` (a try that turned out not to count). */
+	release(key: string, at: number): void;
 }
 
 /**
@@ -79,6 +81,13 @@ export function createRateLimiter(options: RateLimiterOptions): RateLimiter {
 		reset(key) {
 			if (key === undefined) hits.clear();
 			else hits.delete(key);
+		},
+		release(key, at) {
+			const list = hits.get(key);
+			const index = list ? list.lastIndexOf(at) : -1;
+			if (!list || index < 0) return;
+			list.splice(index, 1);
+			if (list.length === 0) hits.delete(key);
 		}
 	};
 }

@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { signIn } from '$lib/server/auth/accounts';
 import { readForm } from '$lib/server/auth/form';
-import { checkSignIn, recordSignInFailure, recordSignInSuccess } from '$lib/server/auth/limits';
+import { beginSignIn, cancelSignIn, recordSignInSuccess } from '$lib/server/auth/limits';
 import { homeFor, safeNext } from '$lib/server/auth/redirects';
 import { createSession, setSessionCookie } from '$lib/server/auth/session';
 import type { Actions, PageServerLoad } from './$types';
@@ -18,9 +18,9 @@ export const actions: Actions = {
 		if (!form) return fail(400, { values: { email: '' }, message: 'The form could not be read.' });
 		const values = { email: form.email ?? '' };
 
-		const limit = checkSignIn(getClientAddress(), values.email);
-		if (!limit.allowed) {
-			const minutes = Math.ceil(limit.retryAfterSeconds / 60);
+		const attempt = beginSignIn(getClientAddress(), values.email);
+		if (!attempt.allowed) {
+			const minutes = Math.ceil(attempt.retryAfterSeconds / 60);
 			return fail(429, {
 				values,
 				message: `Too many tries. Take a breather and try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`
@@ -29,12 +29,10 @@ export const actions: Actions = {
 
 		const result = await signIn({ email: form.email, password: form.password });
 		if (!result.ok) {
-			if (result.reason === 'wrong-credentials') {
-				recordSignInFailure(getClientAddress(), values.email);
-			}
+			if (result.reason === 'invalid') cancelSignIn(attempt);
 			return fail(400, { values, message: result.message });
 		}
-		recordSignInSuccess(values.email);
+		recordSignInSuccess(attempt);
 		const { token, session } = await createSession(result.user.id);
 		setSessionCookie(cookies, token, session.expiresAt);
 		redirect(303, safeNext(form.next ?? url.searchParams.get('next'), homeFor(result.user.role)));

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { signIn } from '$lib/server/auth/accounts';
 import { apiError, readJsonObject, tooManyRequests } from '$lib/server/http/json';
-import { checkSignIn, recordSignInFailure, recordSignInSuccess } from '$lib/server/auth/limits';
+import { beginSignIn, cancelSignIn, recordSignInSuccess } from '$lib/server/auth/limits';
 import { createSession, setSessionCookie } from '$lib/server/auth/session';
 import type { RequestHandler } from './$types';
 
@@ -14,18 +14,18 @@ export const POST: RequestHandler = async ({ request, cookies, getClientAddress 
 	if (!body.ok) return body.response;
 	const address = getClientAddress();
 	const { email, password } = body.value;
-	const limit = checkSignIn(address, email);
-	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds);
+	const attempt = beginSignIn(address, email);
+	if (!attempt.allowed) return tooManyRequests(attempt.retryAfterSeconds);
 
 	const result = await signIn({ email, password });
 	if (!result.ok) {
 		if (result.reason === 'invalid') {
+			cancelSignIn(attempt);
 			return apiError(422, result.message, { field: result.field });
 		}
-		recordSignInFailure(address, email);
 		return apiError(401, result.message);
 	}
-	recordSignInSuccess(email);
+	recordSignInSuccess(attempt);
 	const { token, session } = await createSession(result.user.id);
 	setSessionCookie(cookies, token, session.expiresAt);
 	const { id, name, role, emailVerified } = result.user;

@@ -11,7 +11,8 @@ import { createToken, hashToken } from './tokens';
 /**
  * The account service: every operation on users, their passwords and their mailed links.
  * Functions take loose input (form fields, JSON), validate it themselves and answer a result
- * union; they throw only when the database or the mail service fails.
+ * union; they throw only when the database fails. A mail that cannot be sent does not undo the
+ * change: it comes back as `mailSent: false`, or is only logged where the answer must not differ.
  */
 
 /** How long a mailed link works. */

@@ -40,6 +40,24 @@ test.describe('the try-it box', () => {
 		await expect(result.getByRole('button', { name: 'Play' })).toBeEnabled();
 	});
 
+	test('starts from one of our demo licks, with its teaching note, and names its device', async ({
+		page
+	}) => {
+		await openTryIt(page);
+		await page.getByLabel('Start from one of ours').selectOption('tin-roof');
+		await expect(page.getByLabel('Your lick in abc notation')).toHaveValue(/T:Tin roof/);
+		await expect(page.getByText('An Fmaj7 arpeggio built on the b7 of G7')).toBeVisible();
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		const result = page.getByTestId('try-result');
+		// REFERENCES.md §3: Fmaj7 from the b7 of G7 gives b7 9 11 13.
+		await expect(result).toContainText('arpeggio (F A C E) laid over G7');
+		// Editing the text makes it the learner's own; the example comes back on request.
+		await page.getByLabel('Your lick in abc notation').fill('X:1\nK:C\n"C7" c e g _b|');
+		await expect(page.getByText('Your own version: edit away.')).toBeVisible();
+		await page.getByRole('button', { name: 'Back to the example' }).click();
+		await expect(page.getByLabel('Your lick in abc notation')).toHaveValue(/T:Tin roof/);
+	});
+
 	test('a guitar adds a tablature staff', async ({ page }) => {
 		await openTryIt(page);
 		await page.getByLabel('Instrument').selectOption('guitar');

@@ -8,8 +8,10 @@ export interface Health {
 	ok: boolean;
 	database: { ok: true; dialect: string } | { ok: false; dialect: string; error: string };
 	mail: MailStatus;
-	/** Messages in `DATA_DIR/outbox` (only the local stand-in fills it). */
-	outboxCount: number;
+	/** Messages in `DATA_DIR/outbox` (only the local stand-in fills it); null when unreadable. */
+	outboxCount: number | null;
+	/** Why the outbox could not be read, when it could not. */
+	outboxError?: string;
 	/** Seconds since this server process started. */
 	uptimeSeconds: number;
 	/** ISO 8601 time of the check. */
@@ -28,17 +30,29 @@ async function checkDatabase(): Promise<Health['database']> {
 	}
 }
 
+/** The outbox count; a folder that cannot be read is reported, not thrown (health must answer). */
+async function checkOutbox(): Promise<Pick<Health, 'outboxCount' | 'outboxError'>> {
+	try {
+		return { outboxCount: await countMessages() };
+	} catch (error) {
+		return {
+			outboxCount: null,
+			outboxError: error instanceof Error ? error.message : String(error)
+		};
+	}
+}
+
 /**
  * Ask each part of the site whether it works.
  * @example await checkHealth() // { ok: true, database: { ok: true, dialect: 'sqlite' }, mail: { mode: 'local', … }, … }
  */
 export async function checkHealth(now = new Date()): Promise<Health> {
-	const [database, outboxCount] = await Promise.all([checkDatabase(), countMessages()]);
+	const [database, outbox] = await Promise.all([checkDatabase(), checkOutbox()]);
 	return {
 		ok: database.ok,
 		database,
 		mail: getMailStatus(),
-		outboxCount,
+		...outbox,
 		uptimeSeconds: Math.round(process.uptime()),
 		checkedAt: now.toISOString()
 	};

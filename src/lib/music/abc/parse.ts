@@ -97,7 +97,17 @@ export function defaultUnitLength(meter: string): number {
 	return len != null && len < 0.75 ? 1 / 16 : 1 / 8;
 }
 
-/** A length suffix (`2`, `/`, `3/2`, `//`) as a multiple of the unit; null when malformed. */
+/**
+ * Longest and shortest multiple of the unit length we read. abc 2.1 sets no limit, but a note of
+ * `C99999999` is a typing slip, not music, and would make the player wait for days.
+ */
+export const MAX_LENGTH_MULTIPLIER = 128;
+
+/**
+ * A length suffix (`2`, `/`, `3/2`, `//`) as a multiple of the unit; null when malformed or
+ * beyond 128 times (or below 1/128 of) the unit.
+ * @example lengthMultiplier('3/2') // 1.5
+ */
 export function lengthMultiplier(text: string): number | null {
 	if (text === '') return 1;
 	const m = /^(\d*)(\/*)(\d*)$/.exec(text);
@@ -107,7 +117,9 @@ export function lengthMultiplier(text: string): number | null {
 	if (m[2].length > 0) den = m[3] === '' ? 2 ** m[2].length : Number(m[3]) * 2 ** (m[2].length - 1);
 	else if (m[3] !== '') return null;
 	if (num === 0 || den === 0) return null;
-	return num / den;
+	const value = num / den;
+	if (value > MAX_LENGTH_MULTIPLIER || value < 1 / MAX_LENGTH_MULTIPLIER) return null;
+	return value;
 }
 
 /** The default q of a tuplet (p:q:r, abc 2.1 §4.13). */
@@ -216,6 +228,13 @@ function readTokens(
 						);
 					}
 					const len = Number(m[1]) / (m[2] === undefined ? 1 : Number(m[2]));
+					// A whole note down to a 1/512: anything else is a slip (and breaks playback).
+					if (len > 1 || len < 1 / 512) {
+						return fail(
+							`“L:${value.trim()}” is outside the lengths we read; use a unit from L:1/1 to L:1/512.`,
+							t
+						);
+					}
 					if (inBody) unitLength = len;
 					else headerUnit = len;
 				} else if (name === 'K') {
@@ -288,7 +307,10 @@ function readTokens(
 				}
 				const mult = lengthMultiplier(t.length ?? '');
 				if (mult === null) {
-					return fail(`“${t.length}” is not a note length; write lengths as 2, /2, 3/2 or /.`, t);
+					return fail(
+						`“${t.length}” is not a note length we read: write 2, /2, 3/2 or /, from /128 to 128 units.`,
+						t
+					);
 				}
 				const letterText = t.letter as string;
 				const letter = LETTERS.indexOf(letterText.toUpperCase());
@@ -342,6 +364,9 @@ function readTokens(
 				let base: number;
 				if (t.letter === 'Z' || t.letter === 'X') {
 					const bars = t.length === '' ? 1 : Number(t.length);
+					if (!(bars >= 1 && bars <= 999)) {
+						return fail(`A rest of “${t.length}” bars is more than we read; use 1 to 999.`, t);
+					}
 					base = bars * (meterLength(meter) ?? 1);
 				} else {
 					const mult = lengthMultiplier(t.length ?? '');

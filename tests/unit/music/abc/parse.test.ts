@@ -87,9 +87,24 @@ describe('abc parser', () => {
 		['3/2', 3 / 2],
 		['/4', 1 / 4],
 		['0', null],
-		['3/0', null]
+		['3/0', null],
+		// Beyond 128 times or 1/128 of the unit: a typing slip, refused (our own bound).
+		['128', 128],
+		['129', null],
+		['99999999999999', null],
+		['/128', 1 / 128],
+		['/256', null]
 	])('reads the length %j as %d units', (text, mult) => {
 		expect(lengthMultiplier(text)).toBe(mult);
+	});
+
+	it('refuses absurd lengths with a positioned sentence instead of a days-long note', () => {
+		expect(errorOf(head() + 'C99999999999999|\n')).toMatchObject({ line: 6, column: 1 });
+		expect(errorOf('X:1\nL:1/1000000\nK:C\nC|\n').message).toMatch(/L:1\/512/);
+		expect(errorOf('X:1\nL:4\nK:C\nC|\n').message).toMatch(/L:1\/1 to L:1\/512/);
+		expect(errorOf(head() + 'Z99999|\n').message).toMatch(/1 to 999/);
+		// The bounds themselves are fine: L:1/512, a 128-unit note, 999 bars of rest.
+		expect(tune('X:1\nL:1/512\nK:C\nC128 Z999|\n').notes[0].duration).toBeCloseTo(1 / 4, 10);
 	});
 
 	it('times notes, broken rhythm, tuplets, rests and chords', () => {

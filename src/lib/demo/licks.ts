@@ -30,7 +30,7 @@ export const DEMO_LICKS: readonly DemoLick[] = [
 		title: 'Blue turn',
 		deck: 'first-steps',
 		devices: ['arpeggio'],
-		note: 'Up the C7 arpeggio, then the #9 (Eb) bends into the 3 (E): the blues inside the dominant.',
+		note: 'Up from the root to the 3 5 b7 of C7 (an Edim triad), then the #9 (Eb) bends into the 3 (E).',
 		abc: lick('Blue turn', 132, 'C', '"C7" c d e g _b a g e | _e =e g _b- _b2 z2 |]')
 	},
 	{

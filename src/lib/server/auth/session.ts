@@ -188,6 +188,17 @@ export function readSessionToken(cookies: Pick<CookieJar, 'get'>): string | null
 	return cookies.get(SESSION_COOKIE_NAME) ?? null;
 }
 
+/**
+ * Sign a user in on this response: a new session, its token in the cookie. What every sign-in
+ * path (form, API, sign-up) does once the password or the new account checks out.
+ * @example await startSession(event.cookies, user.id)
+ */
+export async function startSession(cookies: CookieJar, userId: string): Promise<SessionInfo> {
+	const { token, session } = await createSession(userId);
+	setSessionCookie(cookies, token, session.expiresAt);
+	return session;
+}
+
 export function setSessionCookie(cookies: CookieJar, token: string, expiresAt: Date): void {
 	const { attributes } = getLucia().createSessionCookie(token);
 	cookies.set(SESSION_COOKIE_NAME, token, {

@@ -3,7 +3,7 @@ import { signIn } from '$lib/server/auth/accounts';
 import { readForm } from '$lib/server/auth/form';
 import { beginSignIn, cancelSignIn, recordSignInSuccess } from '$lib/server/auth/limits';
 import { homeFor, safeNext } from '$lib/server/auth/redirects';
-import { createSession, setSessionCookie } from '$lib/server/auth/session';
+import { startSession } from '$lib/server/auth/session';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, url }) => {
@@ -33,8 +33,7 @@ export const actions: Actions = {
 			return fail(400, { values, message: result.message });
 		}
 		recordSignInSuccess(attempt);
-		const { token, session } = await createSession(result.user.id);
-		setSessionCookie(cookies, token, session.expiresAt);
+		await startSession(cookies, result.user.id);
 		redirect(303, safeNext(form.next ?? url.searchParams.get('next'), homeFor(result.user.role)));
 	}
 };

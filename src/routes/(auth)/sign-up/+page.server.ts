@@ -3,7 +3,7 @@ import { signUp } from '$lib/server/auth/accounts';
 import { readForm } from '$lib/server/auth/form';
 import { consumeSignUp } from '$lib/server/auth/limits';
 import { homeFor } from '$lib/server/auth/redirects';
-import { createSession, setSessionCookie } from '$lib/server/auth/session';
+import { startSession } from '$lib/server/auth/session';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals }) => {
@@ -41,8 +41,7 @@ export const actions: Actions = {
 			});
 		}
 		// Signed in straight away; the confirmation link can be followed whenever the mail arrives.
-		const { token, session } = await createSession(result.user.id);
-		setSessionCookie(cookies, token, session.expiresAt);
+		await startSession(cookies, result.user.id);
 		redirect(303, `/verify-email?sent=${result.mailSent ? '1' : '0'}`);
 	}
 };

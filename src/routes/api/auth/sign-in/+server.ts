@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { signIn } from '$lib/server/auth/accounts';
 import { apiError, readJsonObject, tooManyRequests } from '$lib/server/http/json';
 import { beginSignIn, cancelSignIn, recordSignInSuccess } from '$lib/server/auth/limits';
-import { createSession, setSessionCookie } from '$lib/server/auth/session';
+import { startSession } from '$lib/server/auth/session';
 import type { RequestHandler } from './$types';
 
 /**
@@ -26,8 +26,7 @@ export const POST: RequestHandler = async ({ request, cookies, getClientAddress 
 		return apiError(401, result.message);
 	}
 	recordSignInSuccess(attempt);
-	const { token, session } = await createSession(result.user.id);
-	setSessionCookie(cookies, token, session.expiresAt);
+	await startSession(cookies, result.user.id);
 	const { id, name, role, emailVerified } = result.user;
 	return json(
 		{ user: { id, name, email: result.user.email, role, emailVerified } },

@@ -1,3 +1,5 @@
+import { isInstrumentId } from '../../music/instruments';
+
 /**
  * A learner's preferences, stored as one JSON column on the user. Every reader goes through
  * `normalizeSettings`, so adding a field later needs no migration: old rows get its default.
@@ -78,4 +80,130 @@ function safeParse(text: string): unknown {
 	} catch {
 		return null;
 	}
+}
+
+/** Bounds of what a person may choose on the settings form (stricter than what loads). */
+export const SETTINGS_LIMITS = Object.freeze({
+	dailyMinutes: { min: 5, max: 120 },
+	// ts-fsrs accepts any request_retention in (0, 1), but the ends are no use to a learner
+	// (common practice in FSRS-based trainers): towards 1 the intervals shrink so fast that the
+	// daily review load explodes; below about 0.7 so much is forgotten between reviews that they
+	// become relearning rather than review.
+	desiredRetention: { min: 0.7, max: 0.97 },
+	digestHour: { min: 0, max: 23 }
+});
+
+/** The loose form (or JSON) input: every field as sent, usually a string. */
+export type SettingsInput = Partial<Record<keyof UserSettings, unknown>>;
+
+export type SettingsInputResult =
+	{ ok: true; settings: UserSettings } | { ok: false; field: keyof UserSettings; message: string };
+
+const INTEGER_TEXT = /^\s*\d{1,4}\s*$/;
+const DECIMAL_TEXT = /^\s*\d{0,2}(\.\d{1,6})?\s*$/;
+
+/** A whole number from a form string (or a number), or null when it is none. */
+function readInteger(value: unknown): number | null {
+	if (typeof value === 'number') return Number.isInteger(value) ? value : null;
+	if (typeof value !== 'string' || !INTEGER_TEXT.test(value)) return null;
+	return Number(value);
+}
+
+function readDecimal(value: unknown): number | null {
+	if (typeof value === 'number') return Number.isFinite(value) ? value : null;
+	if (typeof value !== 'string' || !DECIMAL_TEXT.test(value)) return null;
+	const text = value.trim();
+	return text === '' || text === '.' ? null : Number(text);
+}
+
+// IANA names and the plain UTC alias; Intl also takes offsets such as '+01:00' on newer engines,
+// which are not zones (they ignore summer time), so the shape is checked too.
+const ZONE_SHAPE = /^(UTC|[A-Za-z][A-Za-z0-9_+-]*(\/[A-Za-z0-9_+-]+){0,2})$/;
+
+/** The canonical spelling of an IANA zone ('europe/berlin' → 'Europe/Berlin'), or null. */
+function readTimezone(value: unknown): string | null {
+	if (typeof value !== 'string') return null;
+	const zone = value.trim();
+	if (zone.length === 0 || zone.length > 64 || !ZONE_SHAPE.test(zone)) return null;
+	try {
+		return new Intl.DateTimeFormat('en', { timeZone: zone }).resolvedOptions().timeZone;
+	} catch {
+		return null;
+	}
+}
+
+/** A checkbox: absent or empty when unticked, 'on' (its default value) when ticked. */
+function readCheckbox(value: unknown): boolean | null {
+	if (value === undefined || value === '' || value === false || value === 'off') return false;
+	if (value === 'on' || value === true) return true;
+	return null;
+}
+
+/**
+ * The settings a person submitted, all fields checked strictly; the first bad field comes back
+ * with a sentence to show beside it. Unlike `normalizeSettings` nothing falls back silently:
+ * a wrong value on a form must be said, not replaced.
+ *
+ * @example readSettingsInput({ instrument: 'alto-sax', timezone: 'Europe/Lisbon', digestHour: '18', digestEnabled: 'on', desiredRetention: '0.9', dailyMinutes: '20', keyOrder: 'fourths' })
+ * // → { ok: true, settings: { instrument: 'alto-sax', digestHour: 18, digestEnabled: true, … } }
+ */
+export function readSettingsInput(input: unknown): SettingsInputResult {
+	const form: SettingsInput =
+		input && typeof input === 'object' && !Array.isArray(input) ? (input as SettingsInput) : {};
+	const refuse = (field: keyof UserSettings, message: string) =>
+		({ ok: false, field, message }) as const;
+	const { dailyMinutes: minutes, desiredRetention: retention, digestHour: hour } = SETTINGS_LIMITS;
+
+	const instrument = typeof form.instrument === 'string' ? form.instrument.trim() : '';
+	if (!isInstrumentId(instrument)) {
+		return refuse('instrument', 'Choose one of the instruments in the list.');
+	}
+	const dailyMinutes = readInteger(form.dailyMinutes);
+	if (dailyMinutes === null || dailyMinutes < minutes.min || dailyMinutes > minutes.max) {
+		return refuse(
+			'dailyMinutes',
+			`Enter a whole number of minutes from ${minutes.min} to ${minutes.max}.`
+		);
+	}
+	if (form.keyOrder !== 'weighted' && form.keyOrder !== 'fourths') {
+		return refuse('keyOrder', 'Choose how the keys are picked: weakest first or round the cycle.');
+	}
+	const desiredRetention = readDecimal(form.desiredRetention);
+	if (
+		desiredRetention === null ||
+		desiredRetention < retention.min ||
+		desiredRetention > retention.max
+	) {
+		return refuse(
+			'desiredRetention',
+			`Choose how much to remember: a share from ${retention.min.toFixed(2)} to ${retention.max.toFixed(2)}.`
+		);
+	}
+	const timezone = readTimezone(form.timezone);
+	if (!timezone) {
+		return refuse(
+			'timezone',
+			'Enter a time zone by its region and city name, such as Europe/Berlin or America/Chicago.'
+		);
+	}
+	const digestHour = readInteger(form.digestHour);
+	if (digestHour === null || digestHour < hour.min || digestHour > hour.max) {
+		return refuse('digestHour', 'Choose an hour of the day from 0 to 23.');
+	}
+	const digestEnabled = readCheckbox(form.digestEnabled);
+	if (digestEnabled === null) {
+		return refuse('digestEnabled', 'The daily reminder is either on or off.');
+	}
+	return {
+		ok: true,
+		settings: {
+			timezone,
+			instrument,
+			digestHour,
+			digestEnabled,
+			desiredRetention,
+			dailyMinutes,
+			keyOrder: form.keyOrder
+		}
+	};
 }

@@ -1,5 +1,5 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { changePassword, deleteAccount } from '$lib/server/auth/accounts';
+import { changePassword, deleteAccount, updateSettings } from '$lib/server/auth/accounts';
 import { readForm } from '$lib/server/auth/form';
 import { requireUser } from '$lib/server/auth/guard';
 import { deleteSessionCookie } from '$lib/server/auth/session';
@@ -14,11 +14,39 @@ export const load: PageServerLoad = ({ url }) => {
 			role: user.role,
 			emailVerified: user.emailVerified
 		},
+		practice: user.settings,
 		changed: url.searchParams.get('changed')
 	};
 };
 
 export const actions: Actions = {
+	practice: async ({ request }) => {
+		const user = requireUser();
+		const form = await readForm(request);
+		if (!form) {
+			return fail(400, { form: 'practice', field: null, message: 'The form could not be read.' });
+		}
+		const result = await updateSettings(user.id, form);
+		if (!result.ok) {
+			// The typed values come back so that the form shows what was sent, not what is stored.
+			return fail(result.reason === 'invalid' ? 422 : 400, {
+				form: 'practice',
+				field: result.reason === 'invalid' ? result.field : null,
+				message: result.message,
+				values: {
+					instrument: form.instrument ?? '',
+					dailyMinutes: form.dailyMinutes ?? '',
+					keyOrder: form.keyOrder ?? '',
+					desiredRetention: form.desiredRetention ?? '',
+					timezone: form.timezone ?? '',
+					digestHour: form.digestHour ?? '',
+					digestEnabled: form.digestEnabled === 'on'
+				}
+			});
+		}
+		redirect(303, '/settings?changed=practice');
+	},
+
 	password: async ({ request, locals }) => {
 		const user = requireUser();
 		const form = await readForm(request);

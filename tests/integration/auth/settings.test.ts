@@ -1,0 +1,190 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { isActionFailure, isRedirect } from '@sveltejs/kit';
+// @ts-expect-error: Kit's internal entry (what `getRequestEvent` reads from) publishes no types.
+import { with_request_store } from '@sveltejs/kit/internal/server';
+import { signUp, updateSettings } from '../../../src/lib/server/auth/accounts';
+import type { SessionUser } from '../../../src/lib/server/auth/session';
+import { DEFAULT_SETTINGS } from '../../../src/lib/server/auth/settings';
+import { User } from '../../../src/lib/server/db/models/index';
+import { actions, load } from '../../../src/routes/(learn)/settings/+page.server';
+import { fakeEvent } from './fake-event';
+import { openTestWorld, type TestWorld } from './setup';
+
+let world: TestWorld;
+beforeAll(async () => {
+	world = await openTestWorld();
+});
+afterAll(() => world.close());
+
+const withRequestStore = with_request_store as <T>(
+	store: { event: unknown; state: object },
+	run: () => T
+) => T;
+
+const FORM = {
+	instrument: 'alto-sax',
+	dailyMinutes: '25',
+	keyOrder: 'fourths',
+	desiredRetention: '0.85',
+	timezone: 'Europe/Lisbon',
+	digestHour: '18',
+	digestEnabled: 'on'
+};
+
+let counter = 0;
+async function newLearner(): Promise<SessionUser> {
+	counter += 1;
+	const made = await signUp({
+		email: `practice-${counter}@settings.test`,
+		password: 'walking-bass-7',
+		name: 'Practice Player',
+		role: 'learner'
+	});
+	if (!made.ok) throw new Error(`sign-up failed: ${JSON.stringify(made)}`);
+	return made.user;
+}
+
+async function storedSettings(userId: string) {
+	return (await User.findByPk(userId))!.settings;
+}
+
+/** Run a route function as SvelteKit would: inside a request store, so `requireUser` works. */
+async function asRequest<T>(
+	user: SessionUser | null,
+	body: string,
+	contentType: string,
+	run: (event: never) => T,
+	path = '/settings'
+) {
+	const event = fakeEvent({
+		method: 'POST',
+		path,
+		routeId: '/(learn)/settings',
+		body,
+		contentType,
+		locals: { user, session: null }
+	});
+	try {
+		return {
+			result: await withRequestStore({ event, state: {} }, () => run(event as never))
+		};
+	} catch (thrown) {
+		if (isRedirect(thrown)) return { redirect: thrown.location, status: thrown.status };
+		throw thrown;
+	}
+}
+
+const postForm = (user: SessionUser | null, fields: Record<string, string>) =>
+	asRequest(
+		user,
+		new URLSearchParams(fields).toString(),
+		'application/x-www-form-urlencoded',
+		actions.practice as never
+	);
+
+describe('updateSettings', () => {
+	test('saves checked settings and hands back the session user with them', async () => {
+		const user = await newLearner();
+		const result = await updateSettings(user.id, FORM);
+		const expected = {
+			instrument: 'alto-sax',
+			dailyMinutes: 25,
+			keyOrder: 'fourths',
+			desiredRetention: 0.85,
+			timezone: 'Europe/Lisbon',
+			digestHour: 18,
+			digestEnabled: true
+		};
+		expect(result).toEqual({ ok: true, user: { ...user, settings: expected } });
+		expect(await storedSettings(user.id)).toEqual(expected);
+	});
+
+	test('unticking the reminder saves it as off', async () => {
+		const user = await newLearner();
+		const { digestEnabled: _ticked, ...unticked } = FORM;
+		expect(await updateSettings(user.id, unticked)).toMatchObject({ ok: true });
+		expect((await storedSettings(user.id)).digestEnabled).toBe(false);
+	});
+
+	test.each([
+		[{ ...FORM, instrument: 'banjo' }, 'instrument'],
+		[{ ...FORM, timezone: 'Mars/Olympus_Mons' }, 'timezone'],
+		[{ ...FORM, desiredRetention: '0.99' }, 'desiredRetention'],
+		[null, 'instrument']
+	])('a refused field (%j) changes nothing', async (input, field) => {
+		const user = await newLearner();
+		const result = await updateSettings(user.id, input);
+		expect(result).toMatchObject({ ok: false, reason: 'invalid', field });
+		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
+	});
+
+	test('an account that is gone is reported, not created', async () => {
+		const result = await updateSettings('00000000-0000-4000-8000-000000000000', FORM);
+		expect(result).toEqual({
+			ok: false,
+			reason: 'not-found',
+			message: 'This account no longer exists.'
+		});
+	});
+});
+
+describe('the practice form on /settings', () => {
+	test('the page loads the stored settings into the form', async () => {
+		const user = await newLearner();
+		const { result } = await asRequest(user, '', 'text/plain', load as never);
+		expect(result).toMatchObject({ practice: DEFAULT_SETTINGS });
+	});
+
+	test('a valid form saves and answers 303 back to the page with a success flag', async () => {
+		const user = await newLearner();
+		const done = await postForm(user, FORM);
+		expect(done).toEqual({ status: 303, redirect: '/settings?changed=practice' });
+		expect(await storedSettings(user.id)).toMatchObject({
+			instrument: 'alto-sax',
+			dailyMinutes: 25
+		});
+	});
+
+	test('a refused field answers 422 with its message and what was typed, and changes nothing', async () => {
+		const user = await newLearner();
+		const { result } = await postForm(user, { ...FORM, dailyMinutes: '600' });
+		expect(isActionFailure(result)).toBe(true);
+		expect(result).toMatchObject({
+			status: 422,
+			data: {
+				form: 'practice',
+				field: 'dailyMinutes',
+				message: 'Enter a whole number of minutes from 5 to 120.',
+				values: { ...FORM, dailyMinutes: '600', digestEnabled: true }
+			}
+		});
+		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
+	});
+
+	test.each([
+		['a multipart body without its boundary', 'garbage', 'multipart/form-data'],
+		['a JSON body', JSON.stringify(FORM), 'application/json']
+	])('%s answers 400 and changes nothing', async (_what, body, contentType) => {
+		const user = await newLearner();
+		const { result } = await asRequest(user, body, contentType, actions.practice as never);
+		expect(result).toMatchObject({
+			status: 400,
+			data: { form: 'practice', message: 'The form could not be read.' }
+		});
+		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
+	});
+
+	test('an empty form is refused with 422 on its first field', async () => {
+		const user = await newLearner();
+		const { result } = await postForm(user, {});
+		expect(result).toMatchObject({ status: 422, data: { field: 'instrument' } });
+		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
+	});
+
+	test('a signed-out post is sent to sign in', async () => {
+		expect(await postForm(null, FORM)).toEqual({
+			status: 303,
+			redirect: '/sign-in?next=%2Fsettings'
+		});
+	});
+});

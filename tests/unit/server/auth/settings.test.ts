@@ -1,0 +1,152 @@
+import { describe, expect, test } from 'vitest';
+import { INSTRUMENT_IDS } from '../../../../src/lib/music/instruments';
+import {
+	DEFAULT_SETTINGS,
+	readSettingsInput,
+	type UserSettings
+} from '../../../../src/lib/server/auth/settings';
+
+/** A complete, valid submission of the practice form, as the browser sends it. */
+const FORM = {
+	instrument: 'alto-sax',
+	dailyMinutes: '20',
+	keyOrder: 'fourths',
+	desiredRetention: '0.85',
+	timezone: 'Europe/Lisbon',
+	digestHour: '18',
+	digestEnabled: 'on'
+};
+
+const SAVED: UserSettings = {
+	instrument: 'alto-sax',
+	dailyMinutes: 20,
+	keyOrder: 'fourths',
+	desiredRetention: 0.85,
+	timezone: 'Europe/Lisbon',
+	digestHour: 18,
+	digestEnabled: true
+};
+
+describe('readSettingsInput', () => {
+	test('a complete form becomes typed settings', () => {
+		expect(readSettingsInput(FORM)).toEqual({ ok: true, settings: SAVED });
+	});
+
+	test('every instrument of the music engine is accepted', () => {
+		for (const instrument of INSTRUMENT_IDS) {
+			expect(readSettingsInput({ ...FORM, instrument }), instrument).toMatchObject({
+				ok: true,
+				settings: { instrument }
+			});
+		}
+	});
+
+	test.each([
+		// Bounds are inclusive (5–120 minutes, 0–23 h, 0.70–0.97 retention).
+		[{ dailyMinutes: '5' }, { dailyMinutes: 5 }],
+		[{ dailyMinutes: ' 120 ' }, { dailyMinutes: 120 }],
+		[{ digestHour: '0' }, { digestHour: 0 }],
+		[{ digestHour: '23' }, { digestHour: 23 }],
+		[{ desiredRetention: '0.7' }, { desiredRetention: 0.7 }],
+		[{ desiredRetention: '.97' }, { desiredRetention: 0.97 }],
+		[{ desiredRetention: '0.900' }, { desiredRetention: 0.9 }],
+		[{ keyOrder: 'weighted' }, { keyOrder: 'weighted' }],
+		// An unticked checkbox is simply absent from the form.
+		[{ digestEnabled: undefined }, { digestEnabled: false }],
+		[{ digestEnabled: '' }, { digestEnabled: false }],
+		// Zones are stored in their canonical spelling.
+		[{ timezone: ' europe/berlin ' }, { timezone: 'Europe/Berlin' }],
+		[{ timezone: 'UTC' }, { timezone: 'UTC' }],
+		[{ timezone: 'America/Argentina/Buenos_Aires' }, { timezone: 'America/Buenos_Aires' }],
+		// JSON callers may send real numbers and booleans.
+		[{ dailyMinutes: 30, digestHour: 6, desiredRetention: 0.95, digestEnabled: false }, {}]
+	])('%j is accepted as %j', (change, expected) => {
+		const result = readSettingsInput({ ...FORM, ...change });
+		expect(result.ok).toBe(true);
+		expect(result.ok && result.settings).toMatchObject(expected);
+	});
+
+	test.each([
+		[{ instrument: 'kazoo' }, 'instrument'],
+		[{ instrument: '' }, 'instrument'],
+		[{ instrument: 'ALTO-SAX' }, 'instrument'],
+		[{ instrument: ['alto-sax'] }, 'instrument'],
+		[{ instrument: undefined }, 'instrument'],
+		[{ dailyMinutes: '4' }, 'dailyMinutes'],
+		[{ dailyMinutes: '121' }, 'dailyMinutes'],
+		[{ dailyMinutes: '15.5' }, 'dailyMinutes'],
+		[{ dailyMinutes: '1e2' }, 'dailyMinutes'],
+		[{ dailyMinutes: '' }, 'dailyMinutes'],
+		[{ dailyMinutes: '-10' }, 'dailyMinutes'],
+		[{ dailyMinutes: 'twenty' }, 'dailyMinutes'],
+		[{ dailyMinutes: Number.NaN }, 'dailyMinutes'],
+		[{ keyOrder: 'random' }, 'keyOrder'],
+		[{ keyOrder: '' }, 'keyOrder'],
+		[{ keyOrder: undefined }, 'keyOrder'],
+		[{ desiredRetention: '0.69' }, 'desiredRetention'],
+		[{ desiredRetention: '0.98' }, 'desiredRetention'],
+		[{ desiredRetention: '1' }, 'desiredRetention'],
+		[{ desiredRetention: '90' }, 'desiredRetention'],
+		[{ desiredRetention: '0,9' }, 'desiredRetention'],
+		[{ desiredRetention: '.' }, 'desiredRetention'],
+		[{ desiredRetention: '' }, 'desiredRetention'],
+		[{ desiredRetention: 'NaN' }, 'desiredRetention'],
+		[{ desiredRetention: Infinity }, 'desiredRetention'],
+		[{ timezone: 'Nowhere/Atlantis' }, 'timezone'],
+		[{ timezone: '' }, 'timezone'],
+		[{ timezone: '+01:00' }, 'timezone'],
+		[{ timezone: 'Europe/Berlin; DROP TABLE users' }, 'timezone'],
+		[{ timezone: 'A'.repeat(200) }, 'timezone'],
+		[{ timezone: 42 }, 'timezone'],
+		[{ digestHour: '24' }, 'digestHour'],
+		[{ digestHour: '-1' }, 'digestHour'],
+		[{ digestHour: '7:00' }, 'digestHour'],
+		[{ digestHour: '' }, 'digestHour'],
+		[{ digestEnabled: 'yes please' }, 'digestEnabled'],
+		[{ digestEnabled: 1 }, 'digestEnabled']
+	])('%j is refused on the field %s', (change, field) => {
+		const result = readSettingsInput({ ...FORM, ...change });
+		expect(result).toMatchObject({ ok: false, field });
+		expect(!result.ok && result.message).toMatch(/^[A-Z].{10,}\.$/);
+	});
+
+	test.each([[null], [undefined], ['instrument=alto-sax'], [42], [[FORM]], [{}]])(
+		'garbage %j is refused, never turned into defaults',
+		(garbage) => {
+			expect(readSettingsInput(garbage)).toMatchObject({ ok: false, field: 'instrument' });
+		}
+	);
+
+	test('the defaults themselves pass the form check once written as form strings', () => {
+		const asForm = {
+			...DEFAULT_SETTINGS,
+			dailyMinutes: String(DEFAULT_SETTINGS.dailyMinutes),
+			digestHour: String(DEFAULT_SETTINGS.digestHour),
+			desiredRetention: String(DEFAULT_SETTINGS.desiredRetention),
+			digestEnabled: DEFAULT_SETTINGS.digestEnabled ? 'on' : undefined
+		};
+		expect(readSettingsInput(asForm)).toEqual({ ok: true, settings: DEFAULT_SETTINGS });
+	});
+
+	test('the messages say what to enter', () => {
+		const messages = Object.fromEntries(
+			(
+				[
+					['instrument', 'kazoo'],
+					['dailyMinutes', '0'],
+					['desiredRetention', '0.5'],
+					['digestHour', '30']
+				] as const
+			).map(([field, bad]) => {
+				const result = readSettingsInput({ ...FORM, [field]: bad });
+				return [field, result.ok ? null : result.message];
+			})
+		);
+		expect(messages).toEqual({
+			instrument: 'Choose one of the instruments in the list.',
+			dailyMinutes: 'Enter a whole number of minutes from 5 to 120.',
+			desiredRetention: 'Choose how much to remember: a share from 0.70 to 0.97.',
+			digestHour: 'Choose an hour of the day from 0 to 23.'
+		});
+	});
+});

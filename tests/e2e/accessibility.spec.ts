@@ -59,6 +59,17 @@ test.describe('axe-core finds no serious or critical violation', () => {
 				await signInViaApi(page, learner);
 				await page.goto('/settings');
 				await expect(page.getByRole('heading', { level: 1 })).toHaveText('Settings');
+				await expect(page.getByRole('heading', { name: 'Practice' })).toBeVisible();
+				expect(await seriousViolations(page)).toEqual([]);
+				// A refused practice setting shows its message beside the field.
+				await page.getByLabel('Time zone').fill('Nowhere/Atlantis');
+				await page.getByRole('button', { name: 'Save practice settings' }).click();
+				await expect(page.getByLabel('Time zone')).toHaveAttribute('aria-invalid', 'true');
+				expect(await seriousViolations(page)).toEqual([]);
+				// A saved one shows the success message.
+				await page.getByLabel('Time zone').fill('Europe/Berlin');
+				await page.getByRole('button', { name: 'Save practice settings' }).click();
+				await expect(page.getByRole('status').filter({ hasText: 'Saved' })).toBeVisible();
 				expect(await seriousViolations(page)).toEqual([]);
 				// A refused change shows its message beside the field.
 				await page.getByLabel('Current password').fill('not-my-password-1');

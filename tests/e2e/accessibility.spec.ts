@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { newAccount, signInAsNewAdmin, signInViaApi, signUpViaApi } from './support/accounts';
+import { newAccount, signInAsNew, signInAsNewAdmin, signUpViaApi } from './support/accounts';
 import { seriousViolations } from './support/axe';
 import { tabTo } from './support/keyboard';
 
@@ -16,26 +16,20 @@ test.describe('axe-core finds no serious or critical violation', () => {
 			}
 
 			test('on the learner home', async ({ page, request }) => {
-				const learner = newAccount('learner');
-				await signUpViaApi(request, learner);
-				await signInViaApi(page, learner);
+				await signInAsNew(page, request, 'learner');
 				await page.goto('/home');
 				await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
 				expect(await seriousViolations(page)).toEqual([]);
 			});
 
 			test('on the teacher home', async ({ page, request }) => {
-				const teacher = newAccount('teacher');
-				await signUpViaApi(request, teacher);
-				await signInViaApi(page, teacher);
+				await signInAsNew(page, request, 'teacher');
 				await page.goto('/teach');
 				expect(await seriousViolations(page)).toEqual([]);
 			});
 
 			test('on the refusal a learner gets from a teacher page', async ({ page, request }) => {
-				const learner = newAccount('learner');
-				await signUpViaApi(request, learner);
-				await signInViaApi(page, learner);
+				await signInAsNew(page, request, 'learner');
 				const response = await page.goto('/teach');
 				expect(response?.status()).toBe(403);
 				expect(await seriousViolations(page)).toEqual([]);
@@ -54,9 +48,7 @@ test.describe('axe-core finds no serious or critical violation', () => {
 			}
 
 			test('on the settings of a learner', async ({ page, request }) => {
-				const learner = newAccount('learner');
-				await signUpViaApi(request, learner);
-				await signInViaApi(page, learner);
+				await signInAsNew(page, request, 'learner');
 				await page.goto('/settings');
 				await expect(page.getByRole('heading', { level: 1 })).toHaveText('Settings');
 				await expect(page.getByRole('heading', { name: 'Practice' })).toBeVisible();
@@ -204,9 +196,7 @@ test.describe('keyboard alone', () => {
 		page,
 		request
 	}) => {
-		const learner = newAccount('learner');
-		await signUpViaApi(request, learner);
-		await signInViaApi(page, learner);
+		const learner = await signInAsNew(page, request, 'learner');
 		const newPassword = 'walking-bass-77';
 
 		await page.goto('/settings');

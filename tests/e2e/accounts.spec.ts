@@ -2,6 +2,7 @@ import { expect, test } from '@playwright/test';
 import {
 	newAccount,
 	promoteToAdmin,
+	signInAsNew,
 	signInAsNewAdmin,
 	signInViaApi,
 	signUpViaApi
@@ -52,9 +53,7 @@ test('a learner signs up with the form, confirms the address from the mailed lin
 });
 
 test('a learner is refused the teacher and admin pages with 403', async ({ page, request }) => {
-	const learner = newAccount('learner');
-	await signUpViaApi(request, learner);
-	await signInViaApi(page, learner);
+	await signInAsNew(page, request, 'learner');
 
 	for (const path of ['/teach', '/admin', '/admin/outbox']) {
 		const response = await page.goto(path);
@@ -73,9 +72,7 @@ test('a signed-out visitor is sent to sign in from every signed-in page', async 
 });
 
 test('a teacher sees the Teaching link and an honest empty studio', async ({ page, request }) => {
-	const teacher = newAccount('teacher');
-	await signUpViaApi(request, teacher);
-	await signInViaApi(page, teacher);
+	await signInAsNew(page, request, 'teacher');
 
 	const response = await page.goto('/teach');
 	expect(response?.status()).toBe(200);
@@ -110,9 +107,7 @@ test.describe('on a phone-sized screen', () => {
 		page,
 		request
 	}) => {
-		const teacher = newAccount('teacher');
-		await signUpViaApi(request, teacher);
-		await signInViaApi(page, teacher);
+		await signInAsNew(page, request, 'teacher');
 		await page.goto('/teach');
 
 		const menu = page.getByRole('button', { name: 'Menu' });
@@ -162,9 +157,7 @@ test('the page data sent to the browser names the user and nothing more', async 
 	page,
 	request
 }) => {
-	const learner = newAccount('learner');
-	await signUpViaApi(request, learner);
-	await signInViaApi(page, learner);
+	const learner = await signInAsNew(page, request, 'learner');
 	const res = await page.request.get('/home/__data.json');
 	expect(res.status()).toBe(200);
 	const text = await res.text();

@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { newAccount, signInAsNewAdmin, signInViaApi, signUpViaApi } from './support/accounts';
+import { newAccount, signInAsNew, signInAsNewAdmin, signUpViaApi } from './support/accounts';
 
 /**
  * Screenshots for the README (docs/screenshots/). Run on demand, since they rewrite tracked
@@ -38,9 +38,7 @@ for (const view of [
 		});
 
 		test('the empty learner home', async ({ page, request }) => {
-			const learner = newAccount('learner');
-			await signUpViaApi(request, learner);
-			await signInViaApi(page, learner);
+			await signInAsNew(page, request, 'learner');
 			await page.goto('/home');
 			await settle(page);
 			await page.screenshot({
@@ -50,9 +48,7 @@ for (const view of [
 		});
 
 		test('the empty teacher home', async ({ page, request }) => {
-			const teacher = newAccount('teacher');
-			await signUpViaApi(request, teacher);
-			await signInViaApi(page, teacher);
+			await signInAsNew(page, request, 'teacher');
 			await page.goto('/teach');
 			await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
 			await settle(page);

@@ -1,14 +1,12 @@
 import { expect, test } from '@playwright/test';
-import { newAccount, signInViaApi, signUpViaApi } from './support/accounts';
+import { signInAsNew } from './support/accounts';
 import { tabTo } from './support/keyboard';
 
 test('a learner picks the alto saxophone, it is kept, and the try-it box starts on it', async ({
 	page,
 	request
 }) => {
-	const learner = newAccount('learner');
-	await signUpViaApi(request, learner);
-	await signInViaApi(page, learner);
+	await signInAsNew(page, request, 'learner');
 
 	await page.goto('/settings');
 	const practice = page.getByRole('region', { name: 'Practice' });
@@ -33,9 +31,7 @@ test('a time zone that does not exist is refused beside its field and nothing is
 	page,
 	request
 }) => {
-	const learner = newAccount('learner');
-	await signUpViaApi(request, learner);
-	await signInViaApi(page, learner);
+	await signInAsNew(page, request, 'learner');
 
 	await page.goto('/settings');
 	const zone = page.getByLabel('Time zone');
@@ -52,9 +48,7 @@ test('a time zone that does not exist is refused beside its field and nothing is
 });
 
 test('the practice form works from the keyboard alone', async ({ page, request }) => {
-	const learner = newAccount('learner');
-	await signUpViaApi(request, learner);
-	await signInViaApi(page, learner);
+	await signInAsNew(page, request, 'learner');
 
 	await page.goto('/settings');
 	const weakest = page.getByRole('radio', { name: /Weakest keys first/ });

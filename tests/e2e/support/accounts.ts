@@ -41,6 +41,18 @@ export async function signInViaApi(page: Page, account: Account): Promise<void> 
 	expect(res.status(), await res.text()).toBe(200);
 }
 
+/** A fresh account of `role`, signed up and signed in in `page`: the start of most tests. */
+export async function signInAsNew(
+	page: Page,
+	request: APIRequestContext,
+	role: Role
+): Promise<Account> {
+	const account = newAccount(role);
+	await signUpViaApi(request, account);
+	await signInViaApi(page, account);
+	return account;
+}
+
 /** Make an existing account an admin with the project's own CLI (`npm run admin -- promote`). */
 export function promoteToAdmin(email: string): void {
 	execFileSync(process.execPath, ['--import', 'tsx', 'scripts/admin.ts', 'promote', email], {

@@ -1,5 +1,6 @@
 import type { Migration } from './types';
 import { accounts } from './0001-accounts';
+import { coreLoop } from './0002-core-loop';
 
 export type { Migration } from './types';
 
@@ -7,4 +8,4 @@ export type { Migration } from './types';
  * Every migration, in order. An explicit list rather than a glob so that the Vite build, vitest
  * and tsx scripts all run the same set. Add new ones at the end; never reorder or rename.
  */
-export const migrations: Migration[] = [accounts];
+export const migrations: Migration[] = [accounts, coreLoop];

@@ -41,3 +41,4 @@ export {
 	type QualityId,
 	type SoundingNote
 } from './types';
+export { readLickHome, type LickHome } from './home';

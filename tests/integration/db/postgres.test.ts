@@ -32,7 +32,7 @@ describe.skipIf(!url)('the data layer on PostgreSQL', () => {
 
 	it('seeds the demo accounts idempotently and signs them in', async () => {
 		const first = await seedDemo('demo-password-12');
-		expect(first.created).toHaveLength(DEMO_ACCOUNTS.length);
+		expect(first.created.filter((entry) => entry.includes('@'))).toHaveLength(DEMO_ACCOUNTS.length);
 		expect((await seedDemo('demo-password-12')).created).toEqual([]);
 		const result = await signIn({ email: 'alto@example.com', password: 'demo-password-12' });
 		expect(result.ok && result.user.settings.instrument).toBe('alto-sax');

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signIn } from '../../../src/lib/server/auth/accounts';
-import { User } from '../../../src/lib/server/db/models/index';
+import { Deck, DeckLick, Lick, User } from '../../../src/lib/server/db/models/index';
+import { DEMO_DECKS, DEMO_LICKS } from '../../../src/lib/demo/licks';
 import { DEMO_ACCOUNTS, seedDemo } from '../../../src/lib/server/demo/seed';
 import { openTestWorld, type TestWorld } from '../auth/setup';
 
@@ -18,7 +19,11 @@ const snapshot = async () =>
 describe('seedDemo', () => {
 	it('creates the five demo accounts with their roles, all verified', async () => {
 		const report = await seedDemo('demo-password-12', new Date('2026-11-01T08:00:00Z'));
-		expect(report.created).toEqual(DEMO_ACCOUNTS.map((account) => account.email));
+		expect(report.created).toEqual([
+			...DEMO_ACCOUNTS.map((account) => account.email),
+			...DEMO_LICKS.map((lick) => `lick:${lick.slug}`),
+			...DEMO_DECKS.map((deck) => `deck:${deck.slug}`)
+		]);
 		const rows = await snapshot();
 		expect(rows.map((row) => [row.email, row.role])).toEqual([
 			['admin@example.com', 'admin'],
@@ -46,5 +51,22 @@ describe('seedDemo', () => {
 		expect(report.created).toEqual([]);
 		expect(report.kept).toHaveLength(DEMO_ACCOUNTS.length);
 		expect(await snapshot()).toEqual(before);
+	});
+	it('gives the demo teacher the demo licks in the two demo decks, in order', async () => {
+		await seedDemo('demo-password-12');
+		const teacher = await User.findOne({ where: { email: 'teacher@example.com' } });
+		const licks = await Lick.findAll({ where: { authorId: teacher!.id } });
+		expect(licks.map((l) => l.title).sort()).toEqual(DEMO_LICKS.map((l) => l.title).sort());
+		const decks = await Deck.findAll({ where: { ownerId: teacher!.id }, order: [['name', 'ASC']] });
+		expect(decks.map((d) => d.name)).toEqual(DEMO_DECKS.map((d) => d.title).sort());
+		const first = decks.find((d) => d.name === DEMO_DECKS[0].title)!;
+		const placed = await DeckLick.findAll({
+			where: { deckId: first.id },
+			order: [['position', 'ASC']]
+		});
+		const titleOf = new Map(licks.map((l) => [l.id, l.title]));
+		expect(placed.map((p) => titleOf.get(p.lickId))).toEqual(
+			DEMO_LICKS.filter((l) => l.deck === DEMO_DECKS[0].slug).map((l) => l.title)
+		);
 	});
 });

@@ -1,7 +1,10 @@
 import { normalizeSettings, type UserSettings } from '../auth/settings';
 import { hashPassword } from '../auth/password';
 import { getDb } from '../db/index';
-import { User, type Role } from '../db/models/index';
+import { Deck, DeckLick, Lick, LickTag, User, type Role } from '../db/models/index';
+import { DEMO_DECKS, DEMO_LICKS } from '../../demo/licks';
+import { readLickHome } from '../../music/home';
+import type { Transaction } from 'sequelize';
 
 /**
  * The demo scenario: an invented evening school, the Lantern Street Jazz Workshop, with one
@@ -75,6 +78,67 @@ export async function seedDemo(password: string, now = new Date()): Promise<Seed
 			);
 			report.created.push(account.email);
 		}
+		const teacher = await User.findOne({ where: { email: TEACHER_EMAIL }, transaction });
+		if (teacher) await seedDemoLibrary(teacher.id, report, transaction);
 	});
 	return report;
+}
+
+/** The demo teacher, author of the demo licks. */
+export const TEACHER_EMAIL = 'teacher@example.com';
+
+/**
+ * The demo licks as the demo teacher's library, in the two demo decks. A lick or deck already
+ * there (by title or name) is kept as it is.
+ */
+async function seedDemoLibrary(
+	authorId: string,
+	report: SeedReport,
+	transaction: Transaction
+): Promise<void> {
+	const lickIds = new Map<string, string>();
+	for (const demo of DEMO_LICKS) {
+		const existing = await Lick.findOne({ where: { authorId, title: demo.title }, transaction });
+		if (existing) {
+			lickIds.set(demo.slug, existing.id);
+			continue;
+		}
+		const read = readLickHome(demo.abc);
+		if (!read.ok) throw new Error(`Demo lick ${demo.slug} does not parse: ${read.error.message}`);
+		const tempo = Number(/^Q:\s*1\/4\s*=\s*(\d+)/m.exec(demo.abc)?.[1] ?? 120);
+		const lick = await Lick.create(
+			{
+				authorId,
+				title: demo.title,
+				abc: demo.abc,
+				homeKey: read.home.key,
+				homeQuality: read.home.quality ?? '7',
+				note: demo.note,
+				tempo,
+				swingRatio: 2,
+				visibility: 'classes'
+			},
+			{ transaction }
+		);
+		await LickTag.bulkCreate(
+			demo.devices.map((tag) => ({ lickId: lick.id, tag })),
+			{ transaction }
+		);
+		lickIds.set(demo.slug, lick.id);
+		report.created.push(`lick:${demo.slug}`);
+	}
+	for (const demoDeck of DEMO_DECKS) {
+		const existing = await Deck.findOne({
+			where: { ownerId: authorId, name: demoDeck.title },
+			transaction
+		});
+		if (existing) continue;
+		const deck = await Deck.create({ ownerId: authorId, name: demoDeck.title }, { transaction });
+		const members = DEMO_LICKS.filter((l) => l.deck === demoDeck.slug);
+		await DeckLick.bulkCreate(
+			members.map((l, position) => ({ deckId: deck.id, lickId: lickIds.get(l.slug)!, position })),
+			{ transaction }
+		);
+		report.created.push(`deck:${demoDeck.slug}`);
+	}
 }

@@ -64,6 +64,8 @@ function spellingCost(letter: number, alt: number, accidentals: readonly number[
 			cost += 1;
 	}
 	if (alt >= 2 || alt <= -2) cost += 2;
+	// abc has no triple sharp or flat (abc 2.1 §4.2): such a spelling must always give way.
+	if (alt > 2 || alt < -2) cost += 100;
 	return cost;
 }
 
@@ -82,7 +84,11 @@ export function simplifySpelling(p: SpelledPitch, accidentals: readonly number[]
 	let bestAlt = 0;
 	let bestOctave = 0;
 	const midi = 12 * (p.octave + 1) + LETTER_SEMITONES[p.letter] + p.alt;
-	for (let d = -1; d <= 1; d += 2) {
+	// Neighbouring letters first; two letters away only rescues a spelling abc cannot write
+	// (a double flat moved by a diminished second can need three flats: C-triple-flat is written A).
+	const reach = p.alt > 2 || p.alt < -2 ? 2 : 1;
+	for (let d = -reach; d <= reach; d++) {
+		if (d === 0) continue;
 		const abs = p.octave * 7 + p.letter + d;
 		const letter = ((abs % 7) + 7) % 7;
 		const octave = Math.floor(abs / 7);

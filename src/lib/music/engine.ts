@@ -8,6 +8,7 @@ import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
 import { degreeAt, readNote, type Degree, type DegreeLabel } from './degrees';
+import { chordShape, type ChordShape } from './chord-shape';
 import { remapNotes } from './remap';
 import { analyseNotes, type Device } from './analysis';
 import {
@@ -23,7 +24,9 @@ import {
 	chromaOf,
 	formatNoteName,
 	formatPitch,
+	LETTER_SEMITONES,
 	midiOf,
+	mod12,
 	MusicInvariantError,
 	parseNoteName,
 	parsePitchName,
@@ -57,6 +60,10 @@ export interface VariantNote {
 	/** What that degree is over the chord's quality (a tension, a chord tone…); null without one. */
 	role: Degree['role'] | null;
 	chord: ChordContext | null;
+	/** The note as the learner's part writes it (the same as `pitch` at concert pitch). */
+	writtenPitch: PitchName;
+	/** The chord symbol in force as the learner's part writes it, or null. */
+	writtenChord: string | null;
 }
 
 export interface VariantOptions {
@@ -131,6 +138,8 @@ interface QualityLayer {
 	/** Chord symbol texts (without quotes) and contexts, one per chord symbol of the tune. */
 	chordTexts: string[];
 	contexts: (ChordContext | null)[];
+	/** What each pitch class is over each chord symbol (degree, role, letter), or null. */
+	shapes: (ChordShape | null)[];
 	warnings: MusicWarning[];
 }
 
@@ -206,8 +215,19 @@ function prepareOne(abc: string): PrepareResult {
 		pitches: tune.heads.map((h) => h.pitch),
 		chordTexts: tune.chordSymbols.map((c) => tune.tokens[c.token].value as string),
 		contexts: tune.chordSymbols.map((c) => c.context),
+		shapes: tune.chordSymbols.map((c) => c.context && chordShape(c.context)),
 		warnings: []
 	};
+	// A quoted text that names no chord stays as written; say so rather than drop it silently.
+	const unread = tune.chordSymbols
+		.map((c) => tune.tokens[c.token].value as string)
+		.filter((text, i) => tune.chordSymbols[i].context === null && !/^\s*N\.?C\.?\s*$/i.test(text));
+	if (unread.length) {
+		tune.warnings.push({
+			code: 'unknown-chord',
+			message: `${unread.map((t) => `“${t}”`).join(', ')} ${unread.length === 1 ? 'is not a chord symbol we read: it is' : 'are not chord symbols we read: they are'} kept as written, in every key, and the notes under ${unread.length === 1 ? 'it get' : 'them get'} no degrees.`
+		});
+	}
 	const chordOfNote = tune.notes.map((n) =>
 		n.chord ? tune.chordSymbols.findIndex((c) => c.context === n.chord) : -1
 	);
@@ -298,7 +318,8 @@ function layerFor(lick: PreparedLick, quality: QualityId | null): QualityLayer {
 			contexts.push(c);
 		}
 	});
-	const layer = { quality, pitches, chordTexts, contexts, warnings: remapped.warnings };
+	const shapes = contexts.map((c) => c && chordShape(c));
+	const layer = { quality, pitches, chordTexts, contexts, shapes, warnings: remapped.warnings };
 	lick.layers.set(quality, layer);
 	return layer;
 }
@@ -309,11 +330,12 @@ function moveChords(
 	layer: QualityLayer,
 	by: Steps,
 	keys: readonly KeySignature[]
-): { texts: string[]; contexts: (ChordContext | null)[]; rootChromas: number[] } {
+): MovedChords {
 	const n = layer.chordTexts.length;
 	const texts: string[] = new Array(n);
 	const contexts: (ChordContext | null)[] = new Array(n);
 	const rootChromas: number[] = new Array(n).fill(0);
+	const roots: (SpelledNote | null)[] = new Array(n).fill(null);
 	let keyIndex = 0;
 	const moved: SpelledNote[] = [];
 	for (let i = 0; i < n; i++) {
@@ -329,7 +351,8 @@ function moveChords(
 		const text = transposeChordSymbol(layer.chordTexts[i], by, keys[keyIndex].accidentals, moved);
 		const template = chordTemplate(layer.chordTexts[i]);
 		texts[i] = text;
-		rootChromas[i] = moved.length ? chromaOf(moved[0]) : chromaOf(readNote(c.root));
+		roots[i] = moved.length ? moved[0] : readNote(c.root);
+		rootChromas[i] = chromaOf(roots[i] as SpelledNote);
 		contexts[i] = {
 			symbol: text,
 			root: moved.length ? formatNoteName(moved[0]) : c.root,
@@ -337,7 +360,51 @@ function moveChords(
 			bass: c.bass && template.bass >= 0 ? formatNoteName(moved[template.bass]) : c.bass
 		};
 	}
-	return { texts, contexts, rootChromas };
+	return { texts, contexts, rootChromas, roots };
+}
+
+/** Chord symbols of a variant: texts as written, contexts, and their spelled roots. */
+interface MovedChords {
+	texts: string[];
+	contexts: (ChordContext | null)[];
+	rootChromas: number[];
+	roots: (SpelledNote | null)[];
+}
+
+/**
+ * Write every chord tone and tension on the letter its interval gives above the root of the
+ * chord in force, whatever the key signature (common practice: the third of G#7 is B#, not C).
+ * A tension whose letter would need a double sharp or flat keeps the key's spelling; chromatic
+ * notes keep it too. Grace notes keep the spelling they moved with.
+ */
+function spellOnChords(
+	lick: PreparedLick,
+	layer: QualityLayer,
+	pitches: SpelledPitch[],
+	chords: MovedChords
+): void {
+	const { heads } = lick.tune;
+	for (let i = 0; i < heads.length; i++) {
+		const h = heads[i];
+		if (h.grace) continue;
+		const ci = lick.chordOfNote[h.sounding];
+		if (ci < 0) continue;
+		const shape = layer.shapes[ci];
+		const root = chords.roots[ci];
+		if (!shape || !root) continue;
+		const p = pitches[i];
+		const midi = midiOf(p);
+		const s = mod12(midi - chords.rootChromas[ci]);
+		const iv = shape.spelling[s];
+		if (!iv) continue;
+		const letter = (((root.letter + iv.steps) % 7) + 7) % 7;
+		if (letter === p.letter) continue;
+		const octave = Math.floor((midi - LETTER_SEMITONES[letter] + 6) / 12) - 1;
+		const alt = midi - (12 * (octave + 1) + LETTER_SEMITONES[letter]);
+		if (alt > 2 || alt < -2 || ((alt === 2 || alt === -2) && shape.roles[s] !== 'chord-tone'))
+			continue;
+		pitches[i] = { letter, alt, octave };
+	}
 }
 
 /** Pitches of a layer moved by an interval and spelled for the key in force. */
@@ -404,6 +471,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 
 	const concertPitches = movePitches(tune, layer.pitches, concert.interval, concert.keys);
 	const concertChords = moveChords(tune, layer, concert.interval, concert.keys);
+	spellOnChords(lick, layer, concertPitches, concertChords);
 	const {
 		plan: written,
 		fitWarnings,
@@ -415,6 +483,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			: movePitches(tune, layer.pitches, written.interval, written.keys);
 	const writtenChords =
 		written === concert ? concertChords : moveChords(tune, layer, written.interval, written.keys);
+	if (written !== concert) spellOnChords(lick, layer, writtenPitches, writtenChords);
 
 	const abc = emitAbc(tune, {
 		keys: written.keys,
@@ -438,16 +507,31 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		// The chord in force is the same symbol as in the source, now moved.
 		const ci = lick.chordOfNote[h.sounding];
 		const chord = ci < 0 ? null : concertChords.contexts[ci];
-		const degree = chord ? degreeAt(midi - concertChords.rootChromas[ci], chord.quality) : null;
+		let label: DegreeLabel | null = null;
+		let role: VariantNote['role'] = null;
+		if (chord) {
+			const s = mod12(midi - concertChords.rootChromas[ci]);
+			const shape = layer.shapes[ci];
+			if (shape?.labels[s]) {
+				label = shape.labels[s];
+				role = shape.roles[s];
+			} else {
+				const degree = degreeAt(s, chord.quality);
+				label = degree.label;
+				role = degree.role;
+			}
+		}
 		notes[h.sounding] = {
 			index: src.index,
 			pitch: formatPitch(p),
 			midi,
 			start: src.start,
 			duration: src.duration,
-			degree: degree?.label ?? null,
-			role: degree?.role ?? null,
-			chord
+			degree: label,
+			role,
+			chord,
+			writtenPitch: formatPitch(writtenPitches[i]),
+			writtenChord: ci < 0 ? null : writtenChords.contexts[ci] ? writtenChords.texts[ci] : null
 		};
 	}
 	const firstKey = concert.keys[0];

@@ -30,6 +30,7 @@
 import {
 	LETTER_SEMITONES,
 	LETTERS,
+	mod12,
 	MusicInvariantError,
 	type SpelledNote,
 	type Steps
@@ -58,7 +59,6 @@ export interface RemapResult {
 	warnings: MusicWarning[];
 }
 
-const mod12 = (n: number): number => ((n % 12) + 12) % 12;
 /** The smallest move between two semitone offsets, in -5..6. */
 const smallestMove = (from: number, to: number): number => {
 	const d = mod12(to - from);

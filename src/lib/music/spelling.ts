@@ -52,8 +52,9 @@ export function respellKey(
  * Cost of writing a letter with an alteration in a key: an explicit accidental counts 1, E#, B#,
  * Cb and Fb outside the signature 1 more (they read as a different letter to most eyes), a
  * double accidental 2 more.
+ * @example spellingCost(2, 1, keyOf('C').accidentals) // 2 (E#)
  */
-function spellingCost(letter: number, alt: number, accidentals: readonly number[]): number {
+export function spellingCost(letter: number, alt: number, accidentals: readonly number[]): number {
 	let cost = 0;
 	if (alt !== accidentals[letter]) {
 		cost += 1;

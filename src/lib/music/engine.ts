@@ -4,6 +4,7 @@
  * parsed note heads with small integer arithmetic and one pass of the emitter.
  */
 import { chordTemplate, emitAbc, transposeChordSymbol } from './abc/emit';
+import { speakWarnings, type Speaker } from './speech';
 import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
@@ -43,7 +44,8 @@ import {
 	type KeyName,
 	type MusicWarning,
 	type PitchName,
-	type QualityId
+	type QualityId,
+	type SoundingNote
 } from './types';
 
 export type { AbcError } from './abc/tokenize';
@@ -498,6 +500,8 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			: concertPitches.map((p) => ({ ...p, octave: p.octave + octaveShift }));
 	const notes: VariantNote[] = new Array(tune.notes.length);
 	const { heads } = tune;
+	// What the learner reads, for sentences about the line: the written part when it differs.
+	const shown: SoundingNote[] | null = written === concert ? null : new Array(tune.notes.length);
 	for (let i = 0; i < heads.length; i++) {
 		const h = heads[i];
 		if (h.grace || h.continuation) continue;
@@ -533,9 +537,32 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			writtenPitch: formatPitch(writtenPitches[i]),
 			writtenChord: ci < 0 ? null : writtenChords.contexts[ci] ? writtenChords.texts[ci] : null
 		};
+		if (shown) {
+			const wp = writtenPitches[i];
+			shown[h.sounding] = {
+				index: src.index,
+				pitch: formatPitch(wp),
+				midi: midiOf(wp),
+				start: src.start,
+				duration: src.duration,
+				chord: ci < 0 ? null : writtenChords.contexts[ci]
+			};
+		}
 	}
 	const firstKey = concert.keys[0];
-	const analysis = options.analyse ? analyseSafely(notes) : null;
+	const analysis = options.analyse ? analyseSafely(shown ?? notes) : null;
+	const shownKey = written.keys[0];
+	const speaker: Speaker = {
+		chord: (symbol) => transposeChordSymbol(symbol, written.interval, shownKey.accidentals),
+		source: (_, pitch) => {
+			const p = parsePitchName(pitch);
+			if (!p) return pitch;
+			return formatPitch(
+				simplifySpelling(transposePitch(p, written.interval), shownKey.accidentals)
+			);
+		},
+		output: (n, pitch) => notes[n]?.writtenPitch ?? pitch
+	};
 	const devices = analysis?.devices;
 	return {
 		ok: true,
@@ -549,13 +576,16 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		writtenKey: formatKeyField(written.keys[0]),
 		quality: layer.quality,
 		instrument,
-		warnings: collectWarnings(
-			tune.warnings,
-			layer.warnings,
-			concert.warnings,
-			written === concert ? NONE : written.warnings,
-			fitWarnings,
-			analysis?.warning ? [analysis.warning] : NONE
+		warnings: speakWarnings(
+			collectWarnings(
+				tune.warnings,
+				layer.warnings,
+				concert.warnings,
+				written === concert ? NONE : written.warnings,
+				fitWarnings,
+				analysis?.warning ? [analysis.warning] : NONE
+			),
+			speaker
 		),
 		notes,
 		...(devices ? { devices } : {}),
@@ -593,7 +623,10 @@ function renderHandWritten(
  * Devices of a line. Analysis is a bonus on top of the variant: should it fail on an odd line
  * (for example notes before the first chord symbol), the variant still stands, with a warning.
  */
-function analyseSafely(notes: VariantNote[]): { devices?: Device[]; warning?: MusicWarning } {
+function analyseSafely(notes: readonly SoundingNote[]): {
+	devices?: Device[];
+	warning?: MusicWarning;
+} {
 	try {
 		return { devices: analyseNotes(notes).devices };
 	} catch (e) {

@@ -36,8 +36,9 @@ import {
 	type SpelledPitch,
 	type Steps
 } from './pitch';
-import { simplifySpelling } from './spelling';
-import { planKeys, shiftPlan, type KeyPlan } from './transpose';
+import { simplifyNoteName, simplifySpelling } from './spelling';
+import { planKeys, shiftPlan, transposeNoteName, type KeyPlan } from './transpose';
+import { beatsPerBar } from './meter';
 import {
 	QUALITY_IDS,
 	type ChordContext,
@@ -91,6 +92,18 @@ export interface VariantSuccess {
 	key: KeyName;
 	/** The K: value written in the output (for a transposing instrument, the written key). */
 	writtenKey: string;
+	/** Concert key tonic (the same as `key`, named for screens that show both). */
+	concertKey: KeyName;
+	/** Tonic of the key the learner's part is written in (`D` for B-flat trumpet in concert C). */
+	writtenTonic: KeyName;
+	/** Mode of the lick's key (`major`, `minor`, `dorian`…); the written key has the same mode. */
+	mode: string;
+	/** The lick's meter as its `M:` says (`4/4`, `6/8`, `C`), '' without one. */
+	meter: string;
+	/** Beats of a count-in bar for that meter (4/4 → 4, 6/8 → 2). */
+	beatsPerBar: number;
+	/** Quarter-note beats a minute from the lick's `Q:`, or null without one. */
+	tempo: number | null;
 	quality: QualityId | null;
 	instrument: string;
 	warnings: MusicWarning[];
@@ -564,16 +577,35 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		output: (n, pitch) => notes[n]?.writtenPitch ?? pitch
 	};
 	const devices = analysis?.devices;
+	// K:none has no tonic: the key is the one asked for, if any.
+	const key = firstKey.none
+		? target
+			? formatNoteName(target)
+			: 'none'
+		: formatNoteName(firstKey.tonic);
+	const writtenTonic = shownKey.none
+		? written === concert
+			? key
+			: key === 'none'
+				? 'none'
+				: formatNoteName(
+						simplifyNoteName(
+							transposeNoteName(readNote(key), instrumentSteps(written, concert)),
+							[0, 0, 0, 0, 0, 0, 0]
+						)
+					)
+		: formatNoteName(shownKey.tonic);
 	return {
 		ok: true,
 		abc,
-		// K:none has no tonic: the key is the one asked for, if any.
-		key: firstKey.none
-			? target
-				? formatNoteName(target)
-				: 'none'
-			: formatNoteName(firstKey.tonic),
+		key,
 		writtenKey: formatKeyField(written.keys[0]),
+		concertKey: key,
+		writtenTonic,
+		mode: firstKey.mode,
+		meter: tune.meter,
+		beatsPerBar: beatsPerBar(tune.meter),
+		tempo: tune.tempo,
 		quality: layer.quality,
 		instrument,
 		warnings: speakWarnings(
@@ -637,6 +669,14 @@ function analyseSafely(notes: readonly SoundingNote[]): {
 			}
 		};
 	}
+}
+
+/** The interval from the concert part to the written one. */
+function instrumentSteps(written: KeyPlan, concert: KeyPlan): Steps {
+	return {
+		steps: written.interval.steps - concert.interval.steps,
+		semitones: written.interval.semitones - concert.interval.semitones
+	};
 }
 
 /** The written key plan for an instrument: its transposition plus the octave that fits its range. */

@@ -700,7 +700,10 @@ function writtenPlan(
 		steps: row.steps + 7 * fit.octaveShift,
 		semitones: row.semitones + 12 * fit.octaveShift
 	};
-	const shifted = shiftPlan(keys, concert, by, tritone);
+	// An instrument that reads at concert pitch or octaves from it keeps the concert key's
+	// spelling; a transposing one gets the spelling its written key takes by the tritone setting.
+	const octaves = by.semitones % 12 === 0 && by.steps % 7 === 0;
+	const shifted = shiftPlan(keys, concert, by, tritone, octaves ? 'keep' : 'setting');
 	const clefKeys = shifted.keys.map((k) => withClef(k, row.clef));
 	return {
 		plan: { ...shifted, keys: clefKeys },

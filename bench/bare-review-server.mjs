@@ -16,7 +16,9 @@ const run = (sql, params = []) =>
 		})
 	);
 const get = (sql, params = []) =>
-	new Promise((resolve, reject) => db.get(sql, params, (err, row) => (err ? reject(err) : resolve(row))));
+	new Promise((resolve, reject) =>
+		db.get(sql, params, (err, row) => (err ? reject(err) : resolve(row)))
+	);
 await run('PRAGMA journal_mode=WAL');
 await run('PRAGMA synchronous=NORMAL');
 await run('PRAGMA foreign_keys=ON');
@@ -39,15 +41,31 @@ const server = http.createServer((req, res) => {
 			const result = await serial(async () => {
 				await run('BEGIN IMMEDIATE');
 				try {
-					const card = await get('SELECT * FROM cards WHERE id = ? AND user_id = ?', [input.cardId, userId]);
+					const card = await get('SELECT * FROM cards WHERE id = ? AND user_id = ?', [
+						input.cardId,
+						userId
+					]);
 					if (!card) throw Object.assign(new Error('no card'), { status: 404 });
 					const now = new Date().toISOString();
 					const id = randomUUID();
 					await run(
 						`INSERT INTO reviews (id, card_id, user_id, lick_id, client_id, reviewed_at, day, grade, key, quality,
 						 state_before, state_after, created_at) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?)`,
-						[id, card.id, userId, card.lick_id, input.clientId, now, now.slice(0, 10), input.grade, input.key,
-							input.quality, JSON.stringify(card), JSON.stringify(card), now]
+						[
+							id,
+							card.id,
+							userId,
+							card.lick_id,
+							input.clientId,
+							now,
+							now.slice(0, 10),
+							input.grade,
+							input.key,
+							input.quality,
+							JSON.stringify(card),
+							JSON.stringify(card),
+							now
+						]
 					);
 					const changed = await run(
 						'UPDATE cards SET reps = reps + 1, version = version + 1, updated_at = ? WHERE id = ? AND version = ?',

@@ -20,7 +20,8 @@ import { closeDb, openDb } from '../src/lib/server/db/index';
 import { migrate } from '../src/lib/server/db/migrate';
 import { Card, Lick, User } from '../src/lib/server/db/models/index';
 import { createSession, SESSION_COOKIE_NAME } from '../src/lib/server/auth/session';
-import { normalizeSettings } from '../src/lib/server/auth/settings';
+import { normalizeSettings } from '../src/lib/practice/settings';
+import { settingsOf, toSettingsColumns } from '../src/lib/server/study/settings';
 import { buildToday } from '../src/lib/server/study/today';
 import { buildQueue, type QueueCard } from '../src/lib/practice/queue';
 import { dayBounds, practiceDay } from '../src/lib/practice/day';
@@ -64,7 +65,7 @@ const learner = await User.create({
 	name: 'Bench Learner',
 	passwordHash: 'x',
 	emailVerifiedAt: now,
-	settings: normalizeSettings({ dailyMinutes: 120 })
+	...toSettingsColumns(normalizeSettings({ dailyMinutes: 120 }))
 });
 const lickCount = Math.ceil(CARDS / QUALITIES.length);
 const licks = await Lick.bulkCreate(
@@ -89,7 +90,12 @@ for (let i = 0; i < CARDS; i++) {
 		lickId: licks[Math.floor(i / QUALITIES.length)].id,
 		quality: QUALITIES[i % QUALITIES.length],
 		newPosition: i,
-		due: kind === 0 ? new Date(now.getTime() - (i % 9) * DAY) : kind === 1 ? new Date(now.getTime() + (1 + (i % 30)) * DAY) : now,
+		due:
+			kind === 0
+				? new Date(now.getTime() - (i % 9) * DAY)
+				: kind === 1
+					? new Date(now.getTime() + (1 + (i % 30)) * DAY)
+					: now,
 		state: kind === 2 ? 0 : 2,
 		stability: kind === 2 ? 0 : 2 + (i % 50),
 		difficulty: kind === 2 ? 0 : 5,
@@ -103,23 +109,25 @@ await Card.bulkCreate(cardRows);
 
 // 1a. The pure queue over 5,000 cards.
 const day = practiceDay(now, 'UTC', 4);
-const queueCards: QueueCard[] = (await Card.findAll({ where: { userId: learner.id } })).map((c) => ({
-	id: c.id,
-	lickId: c.lickId,
-	assignmentId: null,
-	newPosition: c.newPosition,
-	introducedDay: c.introducedDay,
-	retired: false,
-	due: c.due,
-	stability: c.stability,
-	difficulty: c.difficulty,
-	scheduledDays: c.scheduledDays,
-	learningSteps: c.learningSteps,
-	reps: c.reps,
-	lapses: c.lapses,
-	state: c.state,
-	lastReview: c.lastReview
-}));
+const queueCards: QueueCard[] = (await Card.findAll({ where: { userId: learner.id } })).map(
+	(c) => ({
+		id: c.id,
+		lickId: c.lickId,
+		assignmentId: null,
+		newPosition: c.newPosition,
+		introducedDay: c.introducedDay,
+		retired: false,
+		due: c.due,
+		stability: c.stability,
+		difficulty: c.difficulty,
+		scheduledDays: c.scheduledDays,
+		learningSteps: c.learningSteps,
+		reps: c.reps,
+		lapses: c.lapses,
+		state: c.state,
+		lastReview: c.lastReview
+	})
+);
 const pureTimes: number[] = [];
 for (let i = 0; i < 30; i++) {
 	const t0 = performance.now();
@@ -139,7 +147,7 @@ for (let i = 0; i < 30; i++) {
 }
 
 // 1b. The whole service, as GET /api/drill/today runs it.
-const actor = { id: learner.id, settings: learner.settings };
+const actor = { id: learner.id, settings: settingsOf(learner) };
 let itemCount = 0;
 const serviceTimes: number[] = [];
 for (let i = 0; i < 8; i++) {
@@ -158,7 +166,9 @@ const lines = [
 
 // 2. POST /api/drill/reviews under autocannon, beside a bare handler doing the same write.
 const cardIds = queueCards.map((c) => c.id);
-const cardQuality = new Map((await Card.findAll({ attributes: ['id', 'quality'] })).map((c) => [c.id, c.quality]));
+const cardQuality = new Map(
+	(await Card.findAll({ attributes: ['id', 'quality'] })).map((c) => [c.id, c.quality])
+);
 const { token } = await createSession(learner.id);
 await closeDb();
 
@@ -229,7 +239,8 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 	// Same data for both: the bare handler gets its own copy of the file.
 	const bareFile = path.join(dataDir, 'bare.sqlite');
 	copyFileSync(dbFile, bareFile);
-	for (const ext of ['-wal', '-shm']) if (existsSync(dbFile + ext)) copyFileSync(dbFile + ext, bareFile + ext);
+	for (const ext of ['-wal', '-shm'])
+		if (existsSync(dbFile + ext)) copyFileSync(dbFile + ext, bareFile + ext);
 
 	const appPort = await freePort();
 	const app = spawn(process.execPath, ['build'], {

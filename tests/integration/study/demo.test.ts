@@ -4,7 +4,7 @@ import { DEMO_LICKS } from '../../../src/lib/demo/licks';
 import { seedDemo } from '../../../src/lib/server/demo/seed';
 import { seedDemoPractice } from '../../../src/lib/server/demo/practice';
 import { buildToday } from '../../../src/lib/server/study/today';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {

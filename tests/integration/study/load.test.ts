@@ -15,7 +15,7 @@ import { QueryTypes } from 'sequelize';
 import { createSession, SESSION_COOKIE_NAME } from '../../../src/lib/server/auth/session';
 import { Card } from '../../../src/lib/server/db/models/index';
 import { addCards } from '../../../src/lib/server/study/cards';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { makeLick, makeUser } from './world';
 
 const ROOT = path.resolve(import.meta.dirname, '../../..');
@@ -35,7 +35,10 @@ function newest(dir: string): number {
 function ensureBuild(): void {
 	const entry = path.join(ROOT, 'build', 'index.js');
 	if (existsSync(entry) && statSync(entry).mtimeMs >= newest(path.join(ROOT, 'src'))) return;
-	const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' });
+	const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
+		cwd: ROOT,
+		stdio: 'inherit'
+	});
 	if (built.status !== 0) throw new Error('vite build failed');
 }
 
@@ -72,7 +75,9 @@ async function startServer(): Promise<void> {
 	const deadline = Date.now() + 30_000;
 	while (Date.now() < deadline) {
 		try {
-			const res = await fetch(`http://127.0.0.1:${port}/api/me`, { signal: AbortSignal.timeout(1000) });
+			const res = await fetch(`http://127.0.0.1:${port}/api/me`, {
+				signal: AbortSignal.timeout(1000)
+			});
 			if (res.status === 401) return;
 		} catch {
 			// not listening yet
@@ -103,7 +108,7 @@ beforeAll(async () => {
 	ensureBuild();
 	world = await openTestWorld();
 	port = await freePort();
-	const learners = [];
+	const learners: Grader[] = [];
 	for (let i = 0; i < LEARNERS; i++) {
 		const learner = await makeUser();
 		const lick = await makeLick(learner);
@@ -135,7 +140,11 @@ type Outcome = {
 };
 
 /** Every grader sends its grades one after another; all graders at once. */
-async function runGraders(prefix: string, perGrader: number, resend: Sent[] = []): Promise<Outcome> {
+async function runGraders(
+	prefix: string,
+	perGrader: number,
+	resend: Sent[] = []
+): Promise<Outcome> {
 	const acked = new Map<string, string>();
 	const failed: Sent[] = [];
 	const reasons: string[] = [];
@@ -157,11 +166,16 @@ async function runGraders(prefix: string, perGrader: number, resend: Sent[] = []
 			// Generous: on a shared, loaded machine a queued write can wait long; a timeout is a failure.
 			signal: AbortSignal.timeout(120_000)
 		});
-		return { status: res.status, body: (await res.json()) as { review?: { id: string }; duplicate?: boolean } };
+		return {
+			status: res.status,
+			body: (await res.json()) as { review?: { id: string }; duplicate?: boolean }
+		};
 	};
 	const work = graders.map(async (g, i) => {
 		const mine: Sent[] = resend.length
-			? resend.filter((s) => g.cardIds.includes(s.cardId) && s.clientId.startsWith(`${prefix}-${i}-`))
+			? resend.filter(
+					(s) => g.cardIds.includes(s.cardId) && s.clientId.startsWith(`${prefix}-${i}-`)
+				)
 			: Array.from({ length: perGrader }, (_, j) => ({
 					clientId: `${prefix}-${i}-${j}`,
 					cardId: g.cardIds[(i + j) % 2]
@@ -174,7 +188,12 @@ async function runGraders(prefix: string, perGrader: number, resend: Sent[] = []
 					// Every other grade is sent again, as a client unsure of its answer would.
 					if (s.clientId.endsWith('0') || s.clientId.endsWith('2')) {
 						const again = await post(g, s);
-						if (again.status === 200 && again.body.duplicate && again.body.review?.id === body.review.id) duplicatesOk++;
+						if (
+							again.status === 200 &&
+							again.body.duplicate &&
+							again.body.review?.id === body.review.id
+						)
+							duplicatesOk++;
 						else duplicatesBad++;
 					}
 				} else {
@@ -193,7 +212,7 @@ async function runGraders(prefix: string, perGrader: number, resend: Sent[] = []
 
 async function stored(prefix: string): Promise<Map<string, number>> {
 	const rows = await world.db.query<{ client_id: string; n: number }>(
-		"SELECT client_id, COUNT(*) AS n FROM reviews WHERE client_id LIKE :p GROUP BY client_id",
+		'SELECT client_id, COUNT(*) AS n FROM reviews WHERE client_id LIKE :p GROUP BY client_id',
 		{ replacements: { p: `${prefix}-%` }, type: QueryTypes.SELECT }
 	);
 	return new Map(rows.map((r) => [r.client_id, Number(r.n)]));

@@ -65,7 +65,7 @@ const learner = await User.create({
 	name: 'Bench Learner',
 	passwordHash: 'x',
 	emailVerifiedAt: now,
-	...toSettingsColumns(normalizeSettings({ dailyMinutes: 120 }))
+	...toSettingsColumns(normalizeSettings({}))
 });
 const lickCount = Math.ceil(CARDS / QUALITIES.length);
 const licks = await Lick.bulkCreate(
@@ -140,7 +140,7 @@ for (let i = 0; i < 30; i++) {
 		ownSource: { newPerDay: 5, active: true },
 		introducedToday: new Map(),
 		licksIntroducedToday: new Set(),
-		dailyMinutes: 120,
+		dailyMinutes: 15,
 		secondsPerCard: 45
 	});
 	pureTimes.push(performance.now() - t0);
@@ -179,6 +179,7 @@ async function hammer(port: number, headers: Record<string, string>) {
 		method: 'POST',
 		connections: 20,
 		duration: 8,
+		timeout: 30,
 		headers: { 'content-type': 'application/json', ...headers },
 		requests: [
 			{
@@ -245,7 +246,9 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 	const appPort = await freePort();
 	const app = spawn(process.execPath, ['build'], {
 		cwd: ROOT,
-		stdio: ['ignore', 'ignore', 'inherit'],
+		// Its log is kept and shown only when no write succeeded (stopping it mid-request logs
+		// the requests cut off).
+		stdio: ['ignore', 'ignore', 'pipe'],
 		env: {
 			...process.env,
 			PORT: String(appPort),
@@ -256,9 +259,12 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 			NODE_ENV: 'production'
 		}
 	});
+	let appLog = '';
+	app.stderr?.on('data', (chunk) => (appLog += chunk));
 	await waitFor(appPort, '/api/me', 401);
 	const ours = await hammer(appPort, { cookie: `${SESSION_COOKIE_NAME}=${token}` });
 	await stop(app);
+	if (ours.ok === 0) console.error(appLog.slice(0, 4000));
 
 	const barePort = await freePort();
 	const bare = fork(path.join(ROOT, 'bench', 'bare-review-server.mjs'), [], {

@@ -8,9 +8,9 @@ import { POST as signUpPost } from '../../../src/routes/api/auth/sign-up/+server
 import { POST as signInPost } from '../../../src/routes/api/auth/sign-in/+server';
 import { POST as signOutPost } from '../../../src/routes/api/auth/sign-out/+server';
 import { GET as meGet } from '../../../src/routes/api/me/+server';
-import { FakeCookies, fakeEvent, type FakeEventInput } from './fake-event';
-import { openTestWorld, tokenFromOutbox, type TestWorld } from './setup';
-import { verifyEmail, promote } from '../../../src/lib/server/auth/accounts';
+import { FakeCookies, fakeEvent, type FakeEventInput } from '../support/fake-event';
+import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
+import { verifyEmail, makeAdmin } from '../../../src/lib/server/auth/accounts';
 
 let world: TestWorld;
 beforeAll(async () => {
@@ -156,7 +156,9 @@ describe('POST /api/auth/sign-in and the session cookie', () => {
 				digestEnabled: true,
 				desiredRetention: 0.9,
 				dailyMinutes: 15,
-				keyOrder: 'weighted'
+				keyOrder: 'weighted',
+				dayStartHour: 4,
+				newPerDay: 5
 			}
 		});
 	});
@@ -341,7 +343,7 @@ describe('the role gate in hooks.server.ts', () => {
 		expect(await status('/(admin)/admin', '/admin')).toBe(403);
 
 		const admin = await signUpAndIn('learner');
-		await promote(admin.email, 'admin');
+		await makeAdmin(admin.email);
 		const adminStatus = async (routeId: string, path: string) =>
 			(await call(ok, { routeId, path, cookies: admin.cookies })).status;
 		expect(await adminStatus('/(admin)/admin/outbox', '/admin/outbox')).toBe(200);

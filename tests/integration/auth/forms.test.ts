@@ -8,8 +8,9 @@ import { actions as signInActions } from '../../../src/routes/(auth)/sign-in/+pa
 import { actions as signUpActions } from '../../../src/routes/(auth)/sign-up/+page.server';
 import { actions as forgotActions } from '../../../src/routes/(auth)/forgot-password/+page.server';
 import { actions as resetActions } from '../../../src/routes/(auth)/reset-password/+page.server';
-import { FakeCookies, fakeEvent } from './fake-event';
-import { openTestWorld, tokenFromOutbox, type TestWorld } from './setup';
+import { FakeCookies, fakeEvent } from '../support/fake-event';
+import { toSessionUser } from '../../../src/lib/server/auth/user';
+import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {
@@ -97,8 +98,10 @@ describe('the account forms', () => {
 		expect(done.result).toMatchObject({
 			status: 422,
 			data: {
-				values: { name: 'Form Player', email: 'form2@example.test', role: 'learner' },
-				field: 'password'
+				form: {
+					data: { name: 'Form Player', email: 'form2@example.test', role: 'learner', password: '' },
+					errors: { password: ['Use at least 10 characters.'] }
+				}
 			}
 		});
 		expect(JSON.stringify(done.result)).not.toContain('short');
@@ -134,7 +137,14 @@ describe('the account forms', () => {
 			});
 			statuses.push((done.result as { status: number }).status);
 			if (i === 0) {
-				expect(done.result).toMatchObject({ data: { values: { email: 'form3@example.test' } } });
+				expect(done.result).toMatchObject({
+					data: {
+						form: {
+							data: { email: 'form3@example.test', password: '' },
+							message: 'That e-mail and password do not match an account.'
+						}
+					}
+				});
 			}
 		}
 		expect(statuses).toEqual([400, 400, 400, 400, 400, 429]);
@@ -148,7 +158,10 @@ describe('the account forms', () => {
 			contentType: 'application/json'
 		});
 		const result = await signUpActions.default(event as never);
-		expect(result).toMatchObject({ status: 400 });
+		expect(result).toMatchObject({
+			status: 400,
+			data: { form: { message: 'The form could not be read.' } }
+		});
 		expect(await User.count()).toBe(before);
 	});
 
@@ -164,7 +177,10 @@ describe('the account forms', () => {
 			password: 'comping-chords-9',
 			confirm: 'comping-chords-8'
 		});
-		expect(mismatch.result).toMatchObject({ status: 422, data: { field: 'confirm' } });
+		expect(mismatch.result).toMatchObject({
+			status: 422,
+			data: { form: { errors: { confirm: ['The two passwords are not the same.'] } } }
+		});
 		const done = await post(resetActions.default, {
 			token,
 			password: 'comping-chords-9',
@@ -176,7 +192,10 @@ describe('the account forms', () => {
 			password: 'comping-chords-9',
 			confirm: 'comping-chords-9'
 		});
-		expect(reused.result).toMatchObject({ status: 400, data: { field: 'token' } });
+		expect(reused.result).toMatchObject({
+			status: 400,
+			data: { form: { message: 'This link has already been used or replaced by a newer one.' } }
+		});
 	});
 });
 
@@ -184,17 +203,7 @@ describe('asking for a new verification link', () => {
 	test('works three times an hour per account, then answers 429', async () => {
 		const { actions } = await import('../../../src/routes/(auth)/verify-email/+page.server');
 		const user = await User.findOne({ where: { email: 'form1@example.test' } });
-		const locals = {
-			user: {
-				id: user!.id,
-				email: user!.email,
-				name: user!.name,
-				role: user!.role,
-				emailVerified: false,
-				settings: user!.settings
-			},
-			session: null
-		};
+		const locals = { user: toSessionUser(user!), session: null };
 		const outcomes = [];
 		for (let i = 0; i < 4; i++) {
 			const event = fakeEvent({ method: 'POST', path: '/verify-email?/resend', locals });

@@ -18,15 +18,16 @@ export interface TestWorld {
 	close(): Promise<void>;
 }
 
-export async function openTestWorld(): Promise<TestWorld> {
+export async function openTestWorld(options: { migrate?: boolean } = {}): Promise<TestWorld> {
 	const dataDir = await mkdtemp(path.join(os.tmpdir(), 'twelvefold-auth-'));
 	process.env.DATA_DIR = dataDir;
 	process.env.PUBLIC_BASE_URL = 'http://twelvefold.test';
 	delete process.env.DATABASE_URL;
 	delete process.env.SMTP_URL;
 	resetConfig();
-	const db = openDb(`sqlite:${path.join(dataDir, 'test.sqlite')}`);
-	await migrate(db);
+	// Strict: a query that forgets `{ transaction }` inside one fails the test at once.
+	const db = openDb(`sqlite:${path.join(dataDir, 'test.sqlite')}`, { strict: true });
+	if (options.migrate !== false) await migrate(db);
 	return {
 		dataDir,
 		db,

@@ -39,14 +39,14 @@ const abc = (title: string, key: string) =>
 	['X:1', `T:${title}`, 'M:4/4', 'L:1/8', 'Q:1/4=120', `K:${key}`, '"C7"cBAG FEDC|'].join('\n');
 
 /** A deck of `size` licks (home quality 7, tempo 120) owned by `ownerId`, in order. */
-export async function makeDeck(ownerId: string, size = 4, name = 'Test deck') {
+export async function makeDeck(ownerId: string, size = 4, name = 'Test deck', lickTitle = 'Lick') {
 	const deck = await Deck.create({ ownerId, name });
 	const licks: Lick[] = [];
 	for (let i = 0; i < size; i++) {
 		const lick = await Lick.create({
 			authorId: ownerId,
-			title: `Lick ${i + 1}`,
-			abc: abc(`Lick ${i + 1}`, 'C'),
+			title: `${lickTitle} ${i + 1}`,
+			abc: abc(`${lickTitle} ${i + 1}`, 'C'),
 			homeKey: 'C',
 			homeQuality: '7',
 			tempo: 120

@@ -436,3 +436,14 @@ export async function isDeckAssignedTo(userId: string, deckId: unknown): Promise
 	);
 	return num(row?.n) > 0;
 }
+
+/** The actor's own decks, the ones they may assign, by name. */
+export async function assignableDecks(actor: Actor): Promise<{ id: string; name: string; lickCount: number }[]> {
+	if (!canTeach(actor)) return [];
+	const rows = await getDb().query<{ id: string; name: string; lick_count: unknown }>(
+		`SELECT d.id, d.name, (SELECT COUNT(*) FROM deck_licks dl WHERE dl.deck_id = d.id) AS lick_count
+		   FROM decks d WHERE d.owner_id = :ownerId ORDER BY d.name, d.id`,
+		{ replacements: { ownerId: actor.id }, type: QueryTypes.SELECT }
+	);
+	return rows.map((r) => ({ id: r.id, name: r.name, lickCount: num(r.lick_count) }));
+}

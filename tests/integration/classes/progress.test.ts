@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { classProgress } from '../../../src/lib/server/classes/progress';
 import { learnerDetail, cellLevel } from '../../../src/lib/server/classes/learner';
 import * as progressRoute from '../../../src/routes/api/classes/[id]/progress/+server';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { buildScenario, comparable, expectedRows, SCENARIO_NOW } from './scenario';
 import { callAs } from './world';
 
@@ -74,7 +74,8 @@ describe('a learner seen by their teacher', () => {
 	test("a learner whose key order is the cycle of fourths sees its columns in that order", async () => {
 		const { ben } = scenario;
 		const { User } = await import('../../../src/lib/server/db/models/index');
-		await User.update({ settings: { ...ben.settings, keyOrder: 'fourths' } }, { where: { id: ben.id } });
+		const row = (await User.findByPk(ben.id))!;
+		await row.update({ settings: { ...row.settings, keyOrder: 'fourths' } });
 		const result = await learnerDetail(scenario.teacher, scenario.classId, ben.id);
 		// Cycle of fourths, common practice: C F Bb Eb Ab Db Gb B E A D G.
 		expect(result.ok && result.view.keys).toEqual(['C', 'F', 'Bb', 'Eb', 'Ab', 'Db', 'Gb', 'B', 'E', 'A', 'D', 'G']);

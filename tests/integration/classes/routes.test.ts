@@ -14,7 +14,7 @@ import * as assignmentRoute from '../../../src/routes/api/assignments/[id]/+serv
 import * as progressRoute from '../../../src/routes/api/classes/[id]/progress/+server';
 import * as learnerRoute from '../../../src/routes/api/classes/[id]/learners/[userId]/+server';
 import * as commentsRoute from '../../../src/routes/api/cards/[id]/comments/+server';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { callAs, makeDeck, makeUser } from './world';
 
 /**

@@ -16,7 +16,7 @@ import {
 import { acceptInvitation, inviteByEmail, previewInvitation } from '../../../src/lib/server/classes/invitations';
 import { joinByCode, joinByLink, leaveClass, removeMember } from '../../../src/lib/server/classes/members';
 import { normalizeKey } from '../../../src/lib/server/classes/keys';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { listMessages, readMessage } from '../../../src/lib/server/mail/outbox';
 import { makeDeck, makeUser } from './world';
 

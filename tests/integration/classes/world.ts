@@ -1,8 +1,10 @@
 import { randomUUID } from 'node:crypto';
 import { Card, Deck, DeckLick, Lick, Review, User, type Role } from '../../../src/lib/server/db/models/index';
 import type { Actor } from '../../../src/lib/server/classes/common';
-import type { SessionUser } from '../../../src/lib/server/auth/session';
-import { fakeEvent, type FakeEventInput } from '../auth/fake-event';
+import type { SessionUser } from '../../../src/lib/server/auth/user';
+import { normalizeSettings } from '../../../src/lib/practice/settings';
+import { settingsOf, toSettingsColumns } from '../../../src/lib/server/study/settings';
+import { fakeEvent, type FakeEventInput } from '../support/fake-event';
 
 /**
  * People and decks for the class tests, made straight in the database (sign-up has its own
@@ -23,7 +25,7 @@ export async function makeUser(
 		role,
 		passwordHash: 'not-a-real-hash',
 		emailVerifiedAt: new Date(),
-		settings: { timezone: 'UTC', ...settings } as never
+		...toSettingsColumns(normalizeSettings({ timezone: 'UTC', ...settings }))
 	});
 	return {
 		id: row.id,
@@ -31,7 +33,7 @@ export async function makeUser(
 		name: row.name,
 		role: row.role,
 		emailVerified: true,
-		settings: row.settings
+		settings: settingsOf(row)
 	};
 }
 

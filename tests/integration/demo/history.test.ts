@@ -5,7 +5,7 @@ import { classProgress } from '../../../src/lib/server/classes/progress';
 import { learnerDetail } from '../../../src/lib/server/classes/learner';
 import { DEMO_CLASS_NAME, HISTORY_DAYS } from '../../../src/lib/server/demo/history';
 import { seedDemo } from '../../../src/lib/server/demo/seed';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 const NOW = new Date('2026-11-20T12:00:00Z');

@@ -14,7 +14,7 @@ import { DELETE as reviewDelete } from '../../../src/routes/api/drill/reviews/[i
 import { GET as cardGet } from '../../../src/routes/api/cards/[id]/+server';
 import { POST as cardsPost } from '../../../src/routes/api/cards/+server';
 import { GET as progressGet } from '../../../src/routes/api/drill/progress/+server';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { call, makeClass, makeDeck, makeLick, makeUser } from './world';
 
 let world: TestWorld;

@@ -1,10 +1,11 @@
-import { QueryTypes } from 'sequelize';
-import { normalizeSettings } from '../auth/settings';
+import { Op } from 'sequelize';
 import { getDb } from '../db/index';
+import { User } from '../db/models/index';
+import { settingsOf } from '../study/settings';
 
 /**
  * Each learner's practice clock (zone, day-start hour, key order), read once per page for the
- * members shown. Settings go through `normalizeSettings`, as everywhere else.
+ * members shown. Settings go through `settingsOf`, as everywhere else.
  */
 export interface LearnerClock {
 	userId: string;
@@ -18,23 +19,15 @@ export interface LearnerClock {
 export async function clocksOf(userIds: string[]): Promise<Map<string, LearnerClock>> {
 	const out = new Map<string, LearnerClock>();
 	if (userIds.length === 0) return out;
-	const rows = await getDb().query<{
-		id: string;
-		name: string;
-		settings: unknown;
-		day_start_hour: unknown;
-	}>('SELECT id, name, settings, day_start_hour FROM users WHERE id IN (:userIds)', {
-		replacements: { userIds },
-		type: QueryTypes.SELECT
-	});
+	getDb();
+	const rows = await User.findAll({ where: { id: { [Op.in]: userIds } } });
 	for (const row of rows) {
-		const settings = normalizeSettings(row.settings);
-		const hour = Number(row.day_start_hour);
+		const settings = settingsOf(row);
 		out.set(row.id, {
 			userId: row.id,
 			name: row.name,
 			timezone: settings.timezone,
-			dayStartHour: Number.isInteger(hour) && hour >= 0 && hour <= 23 ? hour : 4,
+			dayStartHour: settings.dayStartHour,
 			keyOrder: settings.keyOrder
 		});
 	}

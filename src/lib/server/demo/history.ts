@@ -22,6 +22,7 @@ import { seededRandom } from '../../practice/random';
 import type { GradeValue } from '../../practice/api';
 import { buildToday } from '../study/today';
 import { recordReview } from '../study/reviews';
+import { settingsOf } from '../study/settings';
 import type { Role } from '../db/models/index';
 
 export const DEMO_CLASS_NAME = 'Tuesday evening combo';
@@ -129,7 +130,7 @@ export async function seedDemoHistory(
 	let sittings = 0;
 	for (const { user, habit } of learners) {
 		const random = seededRandom(`${seed}:${habit.email}`);
-		const zone = user.settings.timezone;
+		const zone = settingsOf(user).timezone;
 		let yesterday = true;
 		for (let d = 0; d < HISTORY_DAYS; d++) {
 			const day = addDays(firstDay, d);

@@ -2,9 +2,10 @@
  * What the drill needs to know about a learner: their clock (zone and day-start hour), their
  * instrument, retention, daily minutes, key order and new-card pace. Read once per request.
  */
-import { QueryTypes } from 'sequelize';
-import { normalizeSettings, type UserSettings } from '../auth/settings';
+import type { UserSettings } from '../../practice/settings';
 import { getDb } from '../db/index';
+import { User } from '../db/models/index';
+import { settingsOf } from './settings';
 import { DEFAULT_NEW_PER_DAY } from '../../practice/queue';
 import { practiceDay, dayBounds } from '../../practice/day';
 
@@ -29,21 +30,17 @@ export interface Learner {
 /** A learner's settings and clock; null when the account does not exist. */
 export async function loadLearner(actor: Actor | string): Promise<Learner | null> {
 	const id = typeof actor === 'string' ? actor : actor.id;
-	const rows = await getDb().query<{ name: string; settings: unknown; day_start_hour: number }>(
-		'SELECT name, settings, day_start_hour FROM users WHERE id = :id',
-		{ replacements: { id }, type: QueryTypes.SELECT }
-	);
-	if (rows.length === 0) return null;
-	const row = rows[0];
-	const settings =
-		typeof actor !== 'string' && actor.settings ? actor.settings : normalizeSettings(row.settings);
+	getDb();
+	const row = await User.findByPk(id);
+	if (!row) return null;
+	const settings = typeof actor !== 'string' && actor.settings ? actor.settings : settingsOf(row);
 	// A per-learner pace may join the settings later; until then everyone has the default.
 	const pace = (settings as Partial<{ newPerDay: unknown }>).newPerDay;
 	return {
 		id,
 		name: row.name,
 		timeZone: settings.timezone,
-		dayStartHour: Number.isInteger(row.day_start_hour) ? row.day_start_hour : 4,
+		dayStartHour: settings.dayStartHour,
 		instrument: settings.instrument,
 		desiredRetention: settings.desiredRetention,
 		dailyMinutes: settings.dailyMinutes,

@@ -122,3 +122,7 @@ const lines = [
 ];
 console.log(lines.join('\n'));
 if (sink === 0) console.log('(nothing computed)');
+
+// Class progress and the heat map over a large review log (bench/classes.ts).
+const { benchClasses } = await import('./classes');
+console.log(['', ...(await benchClasses())].join('\n'));

@@ -57,7 +57,9 @@ test('a teacher runs a class from invitation to a comment the learner reads in t
 	}
 	await page.getByRole('button', { name: 'Assign', exact: true }).click();
 	await expect(page.getByText(`${DECK} assigned.`)).toBeVisible();
-	await expect(page.getByRole('region', { name: 'Assigned decks' })).toContainText(/keys:\s+C Db Eb F Ab Bb/);
+	await expect(page.getByRole('region', { name: 'Assigned decks' })).toContainText(
+		/keys:\s+C Db Eb F Ab Bb/
+	);
 
 	// Invite someone who has no account yet.
 	const newcomer = newAccount('learner', 'Nia Brightwater');
@@ -75,7 +77,9 @@ test('a teacher runs a class from invitation to a comment the learner reads in t
 	await learner.goto(link.pathname + link.search);
 	await expect(learner.getByRole('heading', { name: 'Join Thursday horns' })).toBeVisible();
 	await learner.getByRole('link', { name: 'Make an account and join' }).click();
-	await expect(learner.getByText('Once your account is made you are in the class Thursday horns.')).toBeVisible();
+	await expect(
+		learner.getByText('Once your account is made you are in the class Thursday horns.')
+	).toBeVisible();
 	await learner.getByLabel('Your name').fill(newcomer.name);
 	await learner.getByLabel('E-mail address').fill(newcomer.email);
 	await learner.getByLabel('Password').fill(newcomer.password);
@@ -86,12 +90,27 @@ test('a teacher runs a class from invitation to a comment the learner reads in t
 
 	// Today's drill: the deck's four licks, new, each in one of the six keys.
 	const today = await (await learner.request.get('/api/drill/today')).json();
-	const items = today.items as { cardId: string; title: string; key: string; quality: string; isNew: boolean; comments: { text: string }[] }[];
+	const items = today.items as {
+		cardId: string;
+		title: string;
+		key: string;
+		quality: string;
+		isNew: boolean;
+		comments: { text: string }[];
+	}[];
 	expect(items.filter((i) => i.isNew)).toHaveLength(4);
 	for (const item of items) expect(SIX_KEYS).toContain(item.key);
 	const [first, second] = items;
 	const graded = await learner.request.post('/api/drill/reviews', {
-		data: { cardId: first.cardId, key: first.key, quality: first.quality, grade: 3, clientId: 'e2e-first', revealMs: 20000, gradeMs: 3000 }
+		data: {
+			cardId: first.cardId,
+			key: first.key,
+			quality: first.quality,
+			grade: 3,
+			clientId: 'e2e-first',
+			revealMs: 20000,
+			gradeMs: 3000
+		}
 	});
 	expect(graded.status(), await graded.text()).toBe(201);
 
@@ -134,6 +153,13 @@ test('the demo class shows three learners with history, a heat map and a comment
 	await page.setViewportSize({ width: 390, height: 844 });
 	if (shots) await page.screenshot({ path: `${shots}/heat-map-mobile.png`, fullPage: false });
 	await page.setViewportSize({ width: 1280, height: 800 });
-	await page.getByTestId('heat-map').getByRole('link').filter({ hasText: /./ }).first().click();
-	await expect(page.locator('#thread')).toBeVisible();
+	// Sam's thread: the teacher's note on a key he dodges, and his answer.
+	await page.goto('/teach/classes');
+	await page.getByRole('link', { name: 'Tuesday evening combo' }).first().click();
+	await page.getByTestId('progress-table').getByRole('link', { name: 'Sam Adeyemi' }).click();
+	const commented = page.getByTestId('heat-map').getByRole('row').filter({ hasText: 'comments' });
+	await commented.getByRole('link').click();
+	await expect(page.getByTestId('thread').getByRole('listitem')).toHaveCount(2);
+	await page.locator('#thread').scrollIntoViewIfNeeded();
+	if (shots) await page.locator('#thread').screenshot({ path: `${shots}/class-comment.png` });
 });

@@ -89,7 +89,8 @@ each('GET /api/classes/[id]', (u) => callAs(classRoute.GET, u, { id: classId }),
 });
 each(
 	'PUT /api/classes/[id]',
-	(u) => callAs(classRoute.PUT, u, { id: classId }, { method: 'PUT', body: { name: 'Renamed combo' } }),
+	(u) =>
+		callAs(classRoute.PUT, u, { id: classId }, { method: 'PUT', body: { name: 'Renamed combo' } }),
 	{ anonymous: 401, otherTeacher: 404, learner: 404, teacher: 200 }
 );
 each('DELETE /api/classes/[id]', (u) => callAs(classRoute.DELETE, u, { id: classId }), {
@@ -134,25 +135,40 @@ each('GET /api/classes/[id]/assignments', (u) => callAs(assignmentsRoute.GET, u,
 each(
 	'POST /api/classes/[id]/assignments',
 	(u) =>
-		callAs(assignmentsRoute.POST, u, { id: classId }, json({ deckId, startDate: '2026-03-02', newPerDay: 2 })),
+		callAs(
+			assignmentsRoute.POST,
+			u,
+			{ id: classId },
+			json({ deckId, startDate: '2026-03-02', newPerDay: 2 })
+		),
 	{ anonymous: 401, otherTeacher: 404, learner: 404, teacher: 201 }
 );
 each(
 	"POST /api/classes/[id]/assignments with another teacher's deck",
 	(u) =>
-		callAs(assignmentsRoute.POST, u, { id: classId }, json({ deckId: otherDeckId, startDate: '2026-03-02', newPerDay: 2 })),
+		callAs(
+			assignmentsRoute.POST,
+			u,
+			{ id: classId },
+			json({ deckId: otherDeckId, startDate: '2026-03-02', newPerDay: 2 })
+		),
 	{ teacher: 422 }
 );
 each(
 	'PUT /api/assignments/[id]',
-	(u) => callAs(assignmentRoute.PUT, u, { id: assignmentId }, { method: 'PUT', body: { newPerDay: 3 } }),
+	(u) =>
+		callAs(assignmentRoute.PUT, u, { id: assignmentId }, { method: 'PUT', body: { newPerDay: 3 } }),
 	{ anonymous: 401, otherTeacher: 404, learner: 404, teacher: 200 }
 );
-each('DELETE /api/assignments/[id]', (u) => callAs(assignmentRoute.DELETE, u, { id: assignmentId }), {
-	anonymous: 401,
-	otherTeacher: 404,
-	learner: 404
-});
+each(
+	'DELETE /api/assignments/[id]',
+	(u) => callAs(assignmentRoute.DELETE, u, { id: assignmentId }),
+	{
+		anonymous: 401,
+		otherTeacher: 404,
+		learner: 404
+	}
+);
 each('GET /api/classes/[id]/progress', (u) => callAs(progressRoute.GET, u, { id: classId }), {
 	anonymous: 401,
 	otherTeacher: 404,
@@ -206,8 +222,12 @@ describe('what each person sees', () => {
 		const res = await callAs(classesRoute.GET, outsider, {});
 		expect((await res.json()).total).toBe(0);
 		const mine = await (await callAs(classesRoute.GET, learner, {})).json();
-		expect(mine.items.map((c: { id: string }) => c.id).sort()).toEqual([classId, otherClassId].sort());
-		expect(mine.items.every((c: { code: unknown; link: unknown }) => c.code === null && c.link === null)).toBe(true);
+		expect(mine.items.map((c: { id: string }) => c.id).sort()).toEqual(
+			[classId, otherClassId].sort()
+		);
+		expect(
+			mine.items.every((c: { code: unknown; link: unknown }) => c.code === null && c.link === null)
+		).toBe(true);
 	});
 
 	test('a teacher lists only the classes they teach', async () => {
@@ -230,17 +250,39 @@ describe('what each person sees', () => {
 			callAs(classesRoute.POST, teacher, {}, { method: 'POST', body: 'not json' }),
 			callAs(classesRoute.POST, teacher, {}, { method: 'POST', body: '[]' }),
 			callAs(classRoute.GET, teacher, { id: 'not-a-uuid' }),
-			callAs(classRoute.PUT, teacher, { id: classId }, { method: 'PUT', body: { joinCode: 'sideways' } }),
+			callAs(
+				classRoute.PUT,
+				teacher,
+				{ id: classId },
+				{ method: 'PUT', body: { joinCode: 'sideways' } }
+			),
 			callAs(joinRoute.POST, learner, {}, json({ code: 42 })),
 			callAs(joinRoute.POST, learner, {}, json({ code: 'ZZZZZZZZ' })),
-			callAs(assignmentsRoute.POST, teacher, { id: classId }, json({ deckId, startDate: '2026-02-30', newPerDay: 4 })),
-			callAs(assignmentsRoute.POST, teacher, { id: classId }, json({ deckId, startDate: '2026-03-01', newPerDay: 4, keys: ['H'] })),
-			callAs(assignmentsRoute.POST, teacher, { id: classId }, json({ deckId, startDate: '2026-03-01', newPerDay: 0 })),
+			callAs(
+				assignmentsRoute.POST,
+				teacher,
+				{ id: classId },
+				json({ deckId, startDate: '2026-02-30', newPerDay: 4 })
+			),
+			callAs(
+				assignmentsRoute.POST,
+				teacher,
+				{ id: classId },
+				json({ deckId, startDate: '2026-03-01', newPerDay: 4, keys: ['H'] })
+			),
+			callAs(
+				assignmentsRoute.POST,
+				teacher,
+				{ id: classId },
+				json({ deckId, startDate: '2026-03-01', newPerDay: 0 })
+			),
 			callAs(progressRoute.GET, teacher, { id: classId }, { path: '/?sort=shoe-size' }),
 			callAs(progressRoute.GET, teacher, { id: classId }, { path: '/?format=xml' }),
 			callAs(commentsRoute.POST, learner, { id: cardId }, json({ text: '   ' })),
 			callAs(invitationsRoute.POST, teacher, { id: classId }, json({ email: 'not an address' }))
 		]);
-		expect(answers.map((r) => r.status)).toEqual([422, 400, 400, 404, 422, 422, 404, 422, 422, 422, 422, 400, 422, 422]);
+		expect(answers.map((r) => r.status)).toEqual([
+			422, 400, 400, 404, 422, 422, 404, 422, 422, 422, 422, 400, 422, 422
+		]);
 	});
 });

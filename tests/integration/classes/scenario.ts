@@ -39,7 +39,9 @@ export async function buildScenario() {
 	});
 	if (!main.ok || !other.ok) throw new Error('assignments refused');
 	const card = async (userId: string, lickIndex: number) =>
-		(await Card.findOne({ where: { userId, lickId: licks[lickIndex].id, assignmentId: main.assignment.id } }))!;
+		(await Card.findOne({
+			where: { userId, lickId: licks[lickIndex].id, assignmentId: main.assignment.id }
+		}))!;
 
 	const [a0, a1] = [await card(ada.id, 0), await card(ada.id, 1)];
 	await introduce(a0, '2026-02-28', new Date('2026-03-10T11:00:00Z'), 120);
@@ -49,7 +51,13 @@ export async function buildScenario() {
 		await addReview(a0, new Date(`${day}T10:00:00Z`), day, 3, 'C');
 		await addReview(a1, new Date(`${day}T11:00:00Z`), day, 1, 'Gb');
 	}
-	const own = await Card.create({ userId: ada.id, lickId: spare.licks[0].id, quality: 'm7', due: SCENARIO_NOW, state: 2 });
+	const own = await Card.create({
+		userId: ada.id,
+		lickId: spare.licks[0].id,
+		quality: 'm7',
+		due: SCENARIO_NOW,
+		state: 2
+	});
 	await addReview(own, new Date('2026-03-10T11:30:00Z'), '2026-03-10', 1, 'E');
 	const b0 = await card(ben.id, 0);
 	await introduce(b0, '2026-03-05', new Date('2026-03-09T00:00:00Z'));
@@ -60,7 +68,15 @@ export async function buildScenario() {
 	await addReview(undone, new Date('2026-03-10T11:45:00Z'), '2026-03-10', 4, 'D');
 	const { Review } = await import('../../../src/lib/server/db/models/index');
 	await Review.update({ undoneAt: SCENARIO_NOW }, { where: { cardId: undone.id, key: 'D' } });
-	return { teacher, classId, ada, ben, cy, mainId: main.assignment.id, otherId: other.assignment.id };
+	return {
+		teacher,
+		classId,
+		ada,
+		ben,
+		cy,
+		mainId: main.assignment.id,
+		otherId: other.assignment.id
+	};
 }
 
 /** Rows without ids, for comparing runs on two databases. */

@@ -6,15 +6,29 @@ import {
 	deleteAssignment,
 	updateAssignment
 } from '../../../src/lib/server/classes/assignments';
-import { createClass, getClass, normalizeJoinCode, updateClass } from '../../../src/lib/server/classes/classes';
+import {
+	createClass,
+	getClass,
+	normalizeJoinCode,
+	updateClass
+} from '../../../src/lib/server/classes/classes';
 import {
 	commentsForCards,
 	listComments,
 	markCommentsSeen,
 	postComment
 } from '../../../src/lib/server/classes/comments';
-import { acceptInvitation, inviteByEmail, previewInvitation } from '../../../src/lib/server/classes/invitations';
-import { joinByCode, joinByLink, leaveClass, removeMember } from '../../../src/lib/server/classes/members';
+import {
+	acceptInvitation,
+	inviteByEmail,
+	previewInvitation
+} from '../../../src/lib/server/classes/invitations';
+import {
+	joinByCode,
+	joinByLink,
+	leaveClass,
+	removeMember
+} from '../../../src/lib/server/classes/members';
 import { normalizeKey } from '../../../src/lib/server/classes/keys';
 import { openTestWorld, type TestWorld } from '../support/world';
 import { listMessages, readMessage } from '../../../src/lib/server/mail/outbox';
@@ -55,9 +69,16 @@ describe('cards made by assignments and members', () => {
 		const cards = await cardsOf(learner.id);
 		// Home quality 7 plus m7: the repeated 7 makes no second card.
 		expect(cards.map((c) => [licks.findIndex((l) => l.id === c.lickId), c.quality])).toEqual([
-			[0, '7'], [0, 'm7'], [1, '7'], [1, 'm7'], [2, '7'], [2, 'm7']
+			[0, '7'],
+			[0, 'm7'],
+			[1, '7'],
+			[1, 'm7'],
+			[2, '7'],
+			[2, 'm7']
 		]);
-		expect(cards.every((c) => c.state === 0 && c.introducedDay === null && c.retiredAt === null)).toBe(true);
+		expect(
+			cards.every((c) => c.state === 0 && c.introducedDay === null && c.retiredAt === null)
+		).toBe(true);
 		expect(cards.every((c) => made.ok && c.assignmentId === made.assignment.id)).toBe(true);
 		expect(cards[0].due.toISOString()).toBe(NOW.toISOString());
 	});
@@ -65,8 +86,19 @@ describe('cards made by assignments and members', () => {
 	test('a member who joins later gets the cards of every assignment; a card they already had is kept', async () => {
 		const { teacher, cls, deck, licks } = await classWithDeck(2);
 		const learner = await makeUser('learner');
-		const own = await Card.create({ userId: learner.id, lickId: licks[0].id, quality: '7', due: NOW, state: 2 });
-		await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 1 }, NOW);
+		const own = await Card.create({
+			userId: learner.id,
+			lickId: licks[0].id,
+			quality: '7',
+			due: NOW,
+			state: 2
+		});
+		await createAssignment(
+			teacher,
+			cls.id,
+			{ deckId: deck.id, startDate: '2026-03-02', newPerDay: 1 },
+			NOW
+		);
 		await joinByCode(learner, cls.code!.toLowerCase());
 		const cards = await cardsOf(learner.id);
 		expect(cards).toHaveLength(2);
@@ -78,7 +110,12 @@ describe('cards made by assignments and members', () => {
 		const { teacher, cls, deck } = await classWithDeck(3);
 		const learner = await makeUser('learner');
 		await joinByCode(learner, cls.code);
-		await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 1 }, NOW);
+		await createAssignment(
+			teacher,
+			cls.id,
+			{ deckId: deck.id, startDate: '2026-03-02', newPerDay: 1 },
+			NOW
+		);
 		const [first] = await cardsOf(learner.id);
 		await first.update({ state: 2, introducedDay: '2026-03-02' });
 		const left = await leaveClass(learner, cls.id, NOW);
@@ -95,30 +132,63 @@ describe('cards made by assignments and members', () => {
 		const { teacher, cls, deck } = await classWithDeck(2);
 		const learner = await makeUser('learner');
 		await joinByCode(learner, cls.code);
-		const made = await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 1 }, NOW);
+		const made = await createAssignment(
+			teacher,
+			cls.id,
+			{ deckId: deck.id, startDate: '2026-03-02', newPerDay: 1 },
+			NOW
+		);
 		if (!made.ok) throw new Error(made.message);
 		const [first] = await cardsOf(learner.id);
 		await first.update({ state: 2, introducedDay: '2026-03-02' });
-		expect(await deleteAssignment(teacher, made.assignment.id, NOW)).toEqual({ ok: true, retired: 1 });
+		expect(await deleteAssignment(teacher, made.assignment.id, NOW)).toEqual({
+			ok: true,
+			retired: 1
+		});
 		const after = await cardsOf(learner.id);
-		expect(after.map((c) => [c.state, c.retiredAt !== null])).toEqual([[2, false], [0, true]]);
+		expect(after.map((c) => [c.state, c.retiredAt !== null])).toEqual([
+			[2, false],
+			[0, true]
+		]);
 	});
 
 	test('editing qualities makes the new ones and retires dropped ones; pausing is an edit', async () => {
 		const { teacher, cls, deck } = await classWithDeck(1);
 		const learner = await makeUser('learner');
 		await joinByCode(learner, cls.code);
-		const made = await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 2, qualities: ['m7'] }, NOW);
+		const made = await createAssignment(
+			teacher,
+			cls.id,
+			{ deckId: deck.id, startDate: '2026-03-02', newPerDay: 2, qualities: ['m7'] },
+			NOW
+		);
 		if (!made.ok) throw new Error(made.message);
-		const edited = await updateAssignment(teacher, made.assignment.id, { qualities: ['maj7'], paused: true }, NOW);
-		expect(edited.ok && [edited.assignment.qualities, edited.assignment.paused]).toEqual([['maj7'], true]);
+		const edited = await updateAssignment(
+			teacher,
+			made.assignment.id,
+			{ qualities: ['maj7'], paused: true },
+			NOW
+		);
+		expect(edited.ok && [edited.assignment.qualities, edited.assignment.paused]).toEqual([
+			['maj7'],
+			true
+		]);
 		const cards = await cardsOf(learner.id);
-		expect(cards.map((c) => [c.quality, c.retiredAt !== null]).sort()).toEqual([['7', false], ['m7', true], ['maj7', false]]);
+		expect(cards.map((c) => [c.quality, c.retiredAt !== null]).sort()).toEqual([
+			['7', false],
+			['m7', true],
+			['maj7', false]
+		]);
 	});
 
 	test('keys are stored as the key list spells them; all twelve are stored as none chosen', async () => {
 		const { teacher, cls, deck } = await classWithDeck(1);
-		const six = await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 4, keys: ['C', 'F', 'A#', 'D#', 'G#', 'C#'] });
+		const six = await createAssignment(teacher, cls.id, {
+			deckId: deck.id,
+			startDate: '2026-03-02',
+			newPerDay: 4,
+			keys: ['C', 'F', 'A#', 'D#', 'G#', 'C#']
+		});
 		expect(six.ok && six.assignment.keys).toEqual(['C', 'F', 'Bb', 'Eb', 'Ab', 'Db']);
 		const all = await createAssignment(teacher, cls.id, {
 			deckId: deck.id,
@@ -135,9 +205,16 @@ describe('cards made by assignments and members', () => {
 		const { teacher, cls, deck } = await classWithDeck(2);
 		const learner = await makeUser('learner');
 		await joinByCode(learner, cls.code);
-		await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 2, targetTempo: 140 });
+		await createAssignment(teacher, cls.id, {
+			deckId: deck.id,
+			startDate: '2026-03-02',
+			newPerDay: 2,
+			targetTempo: 140
+		});
 		const decks = await decksAssignedTo(learner.id);
-		expect(decks.map((d) => [d.deckName, d.className, d.lickCount, d.targetTempo])).toEqual([['Test deck', 'Lantern combo', 2, 140]]);
+		expect(decks.map((d) => [d.deckName, d.className, d.lickCount, d.targetTempo])).toEqual([
+			['Test deck', 'Lantern combo', 2, 140]
+		]);
 		await leaveClass(learner, cls.id);
 		expect(await decksAssignedTo(learner.id)).toEqual([]);
 	});
@@ -170,7 +247,11 @@ describe('joining', () => {
 
 	test('an archived class takes nobody, pauses its assignments, and comes back when restored', async () => {
 		const { teacher, cls, deck } = await classWithDeck(1);
-		await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 2 });
+		await createAssignment(teacher, cls.id, {
+			deckId: deck.id,
+			startDate: '2026-03-02',
+			newPerDay: 2
+		});
 		await updateClass(teacher, cls.id, { archived: true });
 		const learner = await makeUser('learner');
 		const refused = await joinByCode(learner, cls.code);
@@ -184,14 +265,20 @@ describe('joining', () => {
 	test('a mailed invitation reaches the outbox and puts whoever opens it in the class, once', async () => {
 		const { teacher, cls } = await classWithDeck(0);
 		const sent = await inviteByEmail(teacher, cls.id, { email: 'Newcomer@Example.test' });
-		expect(sent.ok && [sent.invitation.email, sent.mailSent]).toEqual(['newcomer@example.test', true]);
+		expect(sent.ok && [sent.invitation.email, sent.mailSent]).toEqual([
+			'newcomer@example.test',
+			true
+		]);
 		const summary = (await listMessages()).find((m) => m.to.includes('newcomer@example.test'))!;
 		const mail = await readMessage(summary.id);
 		if (!mail.ok) throw new Error(mail.error);
 		expect(mail.message.subject).toBe('Tess Marlow invites you to Lantern combo on Twelvefold');
 		const link = new URL(mail.message.links.find((l) => l.includes('/join?invitation='))!);
 		const token = link.searchParams.get('invitation')!;
-		expect(await previewInvitation(token)).toMatchObject({ className: 'Lantern combo', status: 'open' });
+		expect(await previewInvitation(token)).toMatchObject({
+			className: 'Lantern combo',
+			status: 'open'
+		});
 		const newcomer = await makeUser('learner', 'New Comer');
 		const accepted = await acceptInvitation(newcomer, token);
 		expect(accepted.ok && accepted.joined).toBe(true);
@@ -210,7 +297,11 @@ describe('comment threads', () => {
 		const { teacher, cls, deck } = await classWithDeck(1);
 		const learner = await makeUser('learner', 'Lena Reed');
 		await joinByCode(learner, cls.code);
-		await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 2 });
+		await createAssignment(teacher, cls.id, {
+			deckId: deck.id,
+			startDate: '2026-03-02',
+			newPerDay: 2
+		});
 		const [card] = await cardsOf(learner.id);
 		await postComment(teacher, card.id, { text: 'Lovely in Db. Now try the B version slower.' });
 		const forDrill = await commentsForCards(learner.id, [card.id, 'nonsense']);
@@ -233,7 +324,11 @@ describe('comment threads', () => {
 		const { teacher, cls, deck } = await classWithDeck(1);
 		const learner = await makeUser('learner');
 		await joinByCode(learner, cls.code);
-		await createAssignment(teacher, cls.id, { deckId: deck.id, startDate: '2026-03-02', newPerDay: 2 });
+		await createAssignment(teacher, cls.id, {
+			deckId: deck.id,
+			startDate: '2026-03-02',
+			newPerDay: 2
+		});
 		const [card] = await cardsOf(learner.id);
 		await leaveClass(learner, cls.id);
 		const refused = await postComment(teacher, card.id, { text: 'Still there?' });

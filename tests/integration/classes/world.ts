@@ -1,5 +1,13 @@
 import { randomUUID } from 'node:crypto';
-import { Card, Deck, DeckLick, Lick, Review, User, type Role } from '../../../src/lib/server/db/models/index';
+import {
+	Card,
+	Deck,
+	DeckLick,
+	Lick,
+	Review,
+	User,
+	type Role
+} from '../../../src/lib/server/db/models/index';
 import type { Actor } from '../../../src/lib/server/classes/common';
 import type { SessionUser } from '../../../src/lib/server/auth/user';
 import { normalizeSettings } from '../../../src/lib/practice/settings';
@@ -103,6 +111,9 @@ export async function callAs(
 	params: Record<string, string>,
 	input: FakeEventInput = {}
 ): Promise<Response> {
-	const event = { ...fakeEvent({ ...input, locals: { user, session: null } as App.Locals }), params };
+	const event = {
+		...fakeEvent({ ...input, locals: { user, session: null } as App.Locals }),
+		params
+	};
 	return handler(event as never);
 }

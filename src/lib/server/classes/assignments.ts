@@ -3,11 +3,7 @@ import { QUALITY_IDS } from '../../music/types';
 import { addDays } from '../../practice/day';
 import { getDb } from '../db/index';
 import { Assignment, ClassMember, Deck } from '../db/models/index';
-import {
-	createAssignmentCards,
-	retireDroppedQualities,
-	retireNewCards
-} from './class-cards';
+import { createAssignmentCards, retireDroppedQualities, retireNewCards } from './class-cards';
 import {
 	canTeach,
 	classNotFound,
@@ -80,12 +76,19 @@ const bad = (field: string, message: string) => ({ ok: false as const, field, me
 export function readKeys(value: unknown): Read<string[] | null> {
 	if (value === undefined || value === null) return { ok: true, value: null };
 	if (!Array.isArray(value) || value.length === 0 || value.length > 12) {
-		return bad('keys', 'Send keys as a list of 1 to 12 key tonics such as ["C", "Eb"], or leave it out for all twelve.');
+		return bad(
+			'keys',
+			'Send keys as a list of 1 to 12 key tonics such as ["C", "Eb"], or leave it out for all twelve.'
+		);
 	}
 	const keys: string[] = [];
 	for (const item of value) {
 		const key = normalizeKey(item);
-		if (!key) return bad('keys', `${JSON.stringify(item)} is not a key tonic; use names such as C, F#, Bb.`);
+		if (!key)
+			return bad(
+				'keys',
+				`${JSON.stringify(item)} is not a key tonic; use names such as C, F#, Bb.`
+			);
 		if (keys.includes(key)) return bad('keys', `${key} is listed twice.`);
 		keys.push(key);
 	}
@@ -101,14 +104,23 @@ export function readQualities(value: unknown): Read<string[]> {
 	const out: string[] = [];
 	for (const item of value) {
 		if (typeof item !== 'string' || !(QUALITY_IDS as readonly string[]).includes(item)) {
-			return bad('qualities', `${JSON.stringify(item)} is not a chord quality; use one of ${QUALITY_IDS.join(' ')}.`);
+			return bad(
+				'qualities',
+				`${JSON.stringify(item)} is not a chord quality; use one of ${QUALITY_IDS.join(' ')}.`
+			);
 		}
 		if (!out.includes(item)) out.push(item);
 	}
 	return { ok: true, value: out };
 }
 
-function readInt(value: unknown, field: string, min: number, max: number, what: string): Read<number> {
+function readInt(
+	value: unknown,
+	field: string,
+	min: number,
+	max: number,
+	what: string
+): Read<number> {
 	const n = typeof value === 'string' && /^\d+$/.test(value.trim()) ? Number(value) : value;
 	if (typeof n !== 'number' || !Number.isInteger(n) || n < min || n > max) {
 		return bad(field, `${what} must be a whole number from ${min} to ${max}.`);
@@ -127,7 +139,8 @@ interface Checked {
 
 /** Check every field of an assignment (a full one, or an edit over `base`). */
 function readAssignment(input: AssignmentInput, base?: Checked): Read<Checked> {
-	const pick = <K extends keyof AssignmentInput>(k: K) => (input[k] === undefined && base ? undefined : input[k]);
+	const pick = <K extends keyof AssignmentInput>(k: K) =>
+		input[k] === undefined && base ? undefined : input[k];
 	let startDate = base?.startDate;
 	if (pick('startDate') !== undefined || !base) {
 		if (!isDay(input.startDate)) return bad('startDate', 'Give the start date as YYYY-MM-DD.');
@@ -136,7 +149,8 @@ function readAssignment(input: AssignmentInput, base?: Checked): Read<Checked> {
 	let endDate = base?.endDate ?? null;
 	if (input.endDate !== undefined) {
 		if (input.endDate === null || input.endDate === '') endDate = null;
-		else if (!isDay(input.endDate)) return bad('endDate', 'Give the end date as YYYY-MM-DD, or leave it out.');
+		else if (!isDay(input.endDate))
+			return bad('endDate', 'Give the end date as YYYY-MM-DD, or leave it out.');
 		else endDate = input.endDate;
 	}
 	let newPerDay = base?.newPerDay;
@@ -161,7 +175,13 @@ function readAssignment(input: AssignmentInput, base?: Checked): Read<Checked> {
 	if (input.targetTempo !== undefined) {
 		if (input.targetTempo === null || input.targetTempo === '') targetTempo = null;
 		else {
-			const read = readInt(input.targetTempo, 'targetTempo', TEMPO_MIN, TEMPO_MAX, 'The target tempo');
+			const read = readInt(
+				input.targetTempo,
+				'targetTempo',
+				TEMPO_MIN,
+				TEMPO_MAX,
+				'The target tempo'
+			);
 			if (!read.ok) return read;
 			targetTempo = read.value;
 		}
@@ -312,7 +332,10 @@ export async function updateAssignment(
 	const row = await ownAssignment(actor, id);
 	if (!row) return assignmentNotFound;
 	if (input.deckId !== undefined && input.deckId !== row.deckId) {
-		return invalid('deckId', 'The deck of an assignment cannot change; remove it and assign the other deck.');
+		return invalid(
+			'deckId',
+			'The deck of an assignment cannot change; remove it and assign the other deck.'
+		);
 	}
 	if (input.paused !== undefined && typeof input.paused !== 'boolean') {
 		return invalid('paused', 'Send paused as true or false.');
@@ -438,7 +461,9 @@ export async function isDeckAssignedTo(userId: string, deckId: unknown): Promise
 }
 
 /** The actor's own decks, the ones they may assign, by name. */
-export async function assignableDecks(actor: Actor): Promise<{ id: string; name: string; lickCount: number }[]> {
+export async function assignableDecks(
+	actor: Actor
+): Promise<{ id: string; name: string; lickCount: number }[]> {
 	if (!canTeach(actor)) return [];
 	const rows = await getDb().query<{ id: string; name: string; lick_count: unknown }>(
 		`SELECT d.id, d.name, (SELECT COUNT(*) FROM deck_licks dl WHERE dl.deck_id = d.id) AS lick_count

@@ -179,7 +179,10 @@ export async function listClasses(
  * One class as the actor may see it: their own (as teacher) or one they belong to (as learner).
  * @example await getClass(otherTeacher, classId) // { ok: false, reason: 'not-found', … }
  */
-export async function getClass(actor: Actor, classId: unknown): Promise<Result<{ class: ClassView }>> {
+export async function getClass(
+	actor: Actor,
+	classId: unknown
+): Promise<Result<{ class: ClassView }>> {
 	const visible = await visibleClass(actor, classId);
 	if (!visible) return classNotFound;
 	return { ok: true, class: await viewOf(visible.row.id, actor.id) };

@@ -153,7 +153,11 @@ export async function commentsForCards(
 }
 
 /** Mark the teacher's comments on a learner's own cards seen (the drill calls this at a reveal). */
-export async function markCommentsSeen(userId: string, cardIds: string[], now = new Date()): Promise<void> {
+export async function markCommentsSeen(
+	userId: string,
+	cardIds: string[],
+	now = new Date()
+): Promise<void> {
 	const ids = cardIds.filter(isId);
 	if (ids.length === 0) return;
 	await getDb().query(

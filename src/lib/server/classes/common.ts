@@ -27,7 +27,11 @@ export type Refusal =
 export type Result<T> = ({ ok: true } & T) | Refusal;
 
 export const notFound = (message: string): Refusal => ({ ok: false, reason: 'not-found', message });
-export const forbidden = (message: string): Refusal => ({ ok: false, reason: 'forbidden', message });
+export const forbidden = (message: string): Refusal => ({
+	ok: false,
+	reason: 'forbidden',
+	message
+});
 export const conflict = (message: string): Refusal => ({ ok: false, reason: 'conflict', message });
 export const invalid = (field: string, message: string): Refusal => ({
 	ok: false,

@@ -124,7 +124,10 @@ export interface InvitationPreview {
 }
 
 /** What a mailed link invites to, for the page it opens (no account needed to see it). */
-export async function previewInvitation(token: unknown, now = new Date()): Promise<InvitationPreview | null> {
+export async function previewInvitation(
+	token: unknown,
+	now = new Date()
+): Promise<InvitationPreview | null> {
 	if (!tokenShaped(token)) return null;
 	const [row] = await getDb().query<{
 		email: string;
@@ -143,13 +146,14 @@ export async function previewInvitation(token: unknown, now = new Date()): Promi
 	);
 	if (!row) return null;
 	const expires = new Date(isoOrNull(row.expires_at) ?? 0).getTime();
-	const status = row.archived_at !== null
-		? 'archived'
-		: row.accepted_at !== null
-			? 'accepted'
-			: expires <= now.getTime()
-				? 'expired'
-				: 'open';
+	const status =
+		row.archived_at !== null
+			? 'archived'
+			: row.accepted_at !== null
+				? 'accepted'
+				: expires <= now.getTime()
+					? 'expired'
+					: 'open';
 	return { className: row.class_name, teacherName: row.teacher_name, email: row.email, status };
 }
 
@@ -175,7 +179,9 @@ export async function acceptInvitation(
 		// The same person opening the mail again is simply in the class already.
 		const again = await joinClass(actor.id, cls, now);
 		if (again.ok && !again.joined) return again;
-		return conflict('This invitation has already been used. Ask your teacher for a new one or use the class code.');
+		return conflict(
+			'This invitation has already been used. Ask your teacher for a new one or use the class code.'
+		);
 	}
 	// Compare-and-set: only one acceptance of a token wins, however many tabs try at once.
 	const [claimed] = await ClassInvitation.update(

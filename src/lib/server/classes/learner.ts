@@ -200,7 +200,13 @@ export async function learnerDetail(
 	}
 	view.rows = [...rows.values()];
 
-	const log = await db.query<{ day: string; reviews: unknown; recalled: unknown; licks: unknown; ms: unknown }>(
+	const log = await db.query<{
+		day: string;
+		reviews: unknown;
+		recalled: unknown;
+		licks: unknown;
+		ms: unknown;
+	}>(
 		`SELECT r.day, COUNT(*) AS reviews, SUM(CASE WHEN r.grade > 1 THEN 1 ELSE 0 END) AS recalled,
 		        COUNT(DISTINCT r.lick_id) AS licks,
 		        SUM(COALESCE(r.reveal_ms, 0) + COALESCE(r.grade_ms, 0)) AS ms
@@ -218,4 +224,3 @@ export async function learnerDetail(
 	}));
 	return { ok: true, view };
 }
-

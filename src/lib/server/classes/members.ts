@@ -48,7 +48,12 @@ export async function listMembers(
 ): Promise<Result<{ items: MemberView[]; total: number }>> {
 	const cls = await ownClass(actor, classId);
 	if (!cls) return classNotFound;
-	const rows = await getDb().query<{ user_id: string; name: string; email: string; joined_at: unknown }>(
+	const rows = await getDb().query<{
+		user_id: string;
+		name: string;
+		email: string;
+		joined_at: unknown;
+	}>(
 		`SELECT m.user_id, u.name, u.email, m.joined_at
 		   FROM class_members m JOIN users u ON u.id = m.user_id
 		  WHERE m.class_id = :classId ORDER BY u.name, u.id`,
@@ -96,7 +101,13 @@ export async function joinClass(
 		replacements: { id: cls.teacherId },
 		type: QueryTypes.SELECT
 	});
-	return { ok: true, classId: cls.id, className: cls.name, teacherName: teacher?.name ?? '', joined };
+	return {
+		ok: true,
+		classId: cls.id,
+		className: cls.name,
+		teacherName: teacher?.name ?? '',
+		joined
+	};
 }
 
 const codeMessage = 'Enter the 8-character class code your teacher gave you.';
@@ -110,7 +121,8 @@ export async function joinByCode(actor: Actor, codeInput: unknown): Promise<Resu
 	if (!code) return invalid('code', codeMessage);
 	getDb();
 	const cls = await ClassGroup.findOne({ where: { joinCode: code } });
-	if (!cls) return notFound('No class has this code. Check it with your teacher: codes can be renewed.');
+	if (!cls)
+		return notFound('No class has this code. Check it with your teacher: codes can be renewed.');
 	return joinClass(actor.id, cls);
 }
 
@@ -119,12 +131,24 @@ export async function classForLink(
 	token: unknown
 ): Promise<{ id: string; name: string; teacherName: string; archived: boolean } | null> {
 	if (typeof token !== 'string' || token.length < 20 || token.length > 64) return null;
-	const [row] = await getDb().query<{ id: string; name: string; teacher_name: string; archived_at: unknown }>(
+	const [row] = await getDb().query<{
+		id: string;
+		name: string;
+		teacher_name: string;
+		archived_at: unknown;
+	}>(
 		`SELECT c.id, c.name, u.name AS teacher_name, c.archived_at
 		   FROM classes c JOIN users u ON u.id = c.teacher_id WHERE c.join_token = :token`,
 		{ replacements: { token }, type: QueryTypes.SELECT }
 	);
-	return row ? { id: row.id, name: row.name, teacherName: row.teacher_name, archived: row.archived_at !== null } : null;
+	return row
+		? {
+				id: row.id,
+				name: row.name,
+				teacherName: row.teacher_name,
+				archived: row.archived_at !== null
+			}
+		: null;
 }
 
 /** Join through the class's invite link. */
@@ -142,16 +166,29 @@ export async function joinByLink(actor: Actor, token: unknown): Promise<Result<J
  * Leave a class: the learner's new cards from it retire, everything practised stays theirs.
  * @example await leaveClass(learner, classId) // { ok: true, retired: 6 }
  */
-export async function leaveClass(actor: Actor, classId: unknown, now = new Date()): Promise<Result<{ retired: number }>> {
+export async function leaveClass(
+	actor: Actor,
+	classId: unknown,
+	now = new Date()
+): Promise<Result<{ retired: number }>> {
 	if (!isId(classId)) return classNotFound;
 	return removeFromClass(classId, actor.id, now);
 }
 
-async function removeFromClass(classId: string, userId: string, now: Date): Promise<Result<{ retired: number }>> {
+async function removeFromClass(
+	classId: string,
+	userId: string,
+	now: Date
+): Promise<Result<{ retired: number }>> {
 	return getDb().transaction(async (transaction) => {
 		const gone = await ClassMember.destroy({ where: { classId, userId }, transaction });
 		if (gone === 0) return notFound('Not a member of this class.');
-		const retired = await retireNewCards(await assignmentIdsOf(classId, transaction), [userId], now, transaction);
+		const retired = await retireNewCards(
+			await assignmentIdsOf(classId, transaction),
+			[userId],
+			now,
+			transaction
+		);
 		return { ok: true as const, retired };
 	});
 }

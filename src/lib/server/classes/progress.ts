@@ -129,7 +129,10 @@ export async function computeProgress(
 		        SUM(CASE WHEN c.introduced_day < r.day AND r.grade > 1 THEN 1 ELSE 0 END) AS recalled
 		   ${scopeJoin} AND r.day >= :since
 		  GROUP BY r.user_id, r.day`,
-		{ replacements: { ...replacements, since: addDays(earliestToday, -(RETENTION_DAYS - 1)) }, type: select }
+		{
+			replacements: { ...replacements, since: addDays(earliestToday, -(RETENTION_DAYS - 1)) },
+			type: select
+		}
 	);
 	const retention = new Map<string, { learned: number; recalled: number }>();
 	for (const r of recent) {
@@ -155,12 +158,20 @@ export async function computeProgress(
 	for (const row of rows.values()) row.minutesThisWeek = Math.round(row.minutesThisWeek);
 
 	// 2. Per learner and key over the last 60 days.
-	const keys = await db.query<{ user_id: string; key: string; reviews: unknown; recalled: unknown }>(
+	const keys = await db.query<{
+		user_id: string;
+		key: string;
+		reviews: unknown;
+		recalled: unknown;
+	}>(
 		`SELECT r.user_id, r.key, COUNT(*) AS reviews,
 		        SUM(CASE WHEN r.grade > 1 THEN 1 ELSE 0 END) AS recalled
 		   ${scopeJoin} AND r.day >= :since
 		  GROUP BY r.user_id, r.key`,
-		{ replacements: { ...replacements, since: addDays(earliestToday, -(WEAK_KEY_DAYS - 1)) }, type: select }
+		{
+			replacements: { ...replacements, since: addDays(earliestToday, -(WEAK_KEY_DAYS - 1)) },
+			type: select
+		}
 	);
 	const byKey = new Map<string, Map<string, { reviews: number; recalled: number }>>();
 	for (const k of keys) {
@@ -183,7 +194,12 @@ export async function computeProgress(
 	}
 
 	// 3. Runs of consecutive practice days: each learner's latest run and latest review.
-	const runs = await db.query<{ user_id: string; last_day: string; length: unknown; last_at: unknown }>(
+	const runs = await db.query<{
+		user_id: string;
+		last_day: string;
+		length: unknown;
+		last_at: unknown;
+	}>(
 		`WITH days AS (
 		   SELECT r.user_id, r.day, MAX(r.reviewed_at) AS last_at ${scopeJoin}
 		    GROUP BY r.user_id, r.day),
@@ -212,7 +228,12 @@ export async function computeProgress(
 	}
 
 	// 4. Cards: due now, and tempo reached against the target.
-	const cards = await db.query<{ user_id: string; due: unknown; started: unknown; tempo_share: unknown }>(
+	const cards = await db.query<{
+		user_id: string;
+		due: unknown;
+		started: unknown;
+		tempo_share: unknown;
+	}>(
 		`SELECT c.user_id,
 		        SUM(CASE WHEN c.due <= :now THEN 1 ELSE 0 END) AS due,
 		        COUNT(*) AS started,
@@ -259,7 +280,15 @@ export async function classProgress(
 	classId: unknown,
 	query: ProgressQuery = {},
 	now = new Date()
-): Promise<Result<{ items: ProgressRow[]; total: number; sort: ProgressSort; dir: 'asc' | 'desc'; assignmentId: string | null }>> {
+): Promise<
+	Result<{
+		items: ProgressRow[];
+		total: number;
+		sort: ProgressSort;
+		dir: 'asc' | 'desc';
+		assignmentId: string | null;
+	}>
+> {
 	const cls = await ownClass(actor, classId);
 	if (!cls) return classNotFound;
 	const sort = query.sort ?? 'name';
@@ -270,7 +299,11 @@ export async function classProgress(
 	if (dir !== 'asc' && dir !== 'desc') return invalid('dir', 'Send dir as asc or desc.');
 	let assignmentIds = await assignmentIdsOf(cls.id);
 	let assignmentId: string | null = null;
-	if (query.assignmentId !== undefined && query.assignmentId !== null && query.assignmentId !== '') {
+	if (
+		query.assignmentId !== undefined &&
+		query.assignmentId !== null &&
+		query.assignmentId !== ''
+	) {
 		if (typeof query.assignmentId !== 'string' || !assignmentIds.includes(query.assignmentId)) {
 			return invalid('assignment', 'No such assignment in this class.');
 		}

@@ -121,7 +121,13 @@ export async function seedDemoHistory(
 	const second = await createAssignment(
 		teacher,
 		cls.id,
-		{ deckId: deckIds[1], startDate: addDays(firstDay, 10), newPerDay: 1, qualities: ['m7'], targetTempo: 132 },
+		{
+			deckId: deckIds[1],
+			startDate: addDays(firstDay, 10),
+			newPerDay: 1,
+			qualities: ['m7'],
+			targetTempo: 132
+		},
 		start
 	);
 	if (!first.ok || !second.ok) throw new Error('Demo assignments were refused');
@@ -137,7 +143,9 @@ export async function seedDemoHistory(
 			const practised = habit.practise(random, yesterday);
 			yesterday = practised;
 			if (!practised) continue;
-			let at = new Date(dayStart(day, zone, habit.hour).getTime() + Math.floor(random() * 40) * 60_000);
+			let at = new Date(
+				dayStart(day, zone, habit.hour).getTime() + Math.floor(random() * 40) * 60_000
+			);
 			if (at.getTime() >= now.getTime()) break;
 			const today = await buildToday({ id: user.id }, at);
 			sittings += 1;
@@ -168,7 +176,10 @@ export async function seedDemoHistory(
 			}
 		}
 	}
-	await seedDemoComments(teacher, learners.map((l) => l.user.id));
+	await seedDemoComments(
+		teacher,
+		learners.map((l) => l.user.id)
+	);
 	return { skipped: false, reviews, sittings };
 }
 
@@ -183,7 +194,10 @@ async function seedDemoComments(teacher: { id: string; role: Role }, learnerIds:
 		if (!userId) continue;
 		const card = await Card.findOne({
 			where: { userId, state: 2 },
-			order: [['lapses', 'DESC'], ['reps', 'DESC']]
+			order: [
+				['lapses', 'DESC'],
+				['reps', 'DESC']
+			]
 		});
 		if (!card) continue;
 		await postComment(teacher, card.id, { text: notes[i] });

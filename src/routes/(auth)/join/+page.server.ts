@@ -42,10 +42,12 @@ export const actions: Actions = {
 	default: async ({ url, locals }) => {
 		if (!locals.user) redirect(303, signInUrl(url));
 		const invitation = url.searchParams.get('invitation');
-		const result = invitation !== null
-			? await acceptInvitation(locals.user, invitation)
-			: await joinByLink(locals.user, url.searchParams.get('link'));
-		if (!result.ok) return fail(result.reason === 'conflict' ? 409 : 404, { message: result.message });
+		const result =
+			invitation !== null
+				? await acceptInvitation(locals.user, invitation)
+				: await joinByLink(locals.user, url.searchParams.get('link'));
+		if (!result.ok)
+			return fail(result.reason === 'conflict' ? 409 : 404, { message: result.message });
 		redirect(303, `/classes?joined=${encodeURIComponent(result.className)}`);
 	}
 };

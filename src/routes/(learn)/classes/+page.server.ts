@@ -23,7 +23,10 @@ export const actions: Actions = {
 		const form = await readForm(request);
 		const limit = classLimits.join(user.id);
 		if (!limit.allowed) {
-			return fail(429, { code: form?.code ?? '', message: `Too many tries; wait ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.` });
+			return fail(429, {
+				code: form?.code ?? '',
+				message: `Too many tries; wait ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`
+			});
 		}
 		const result = await joinByCode(user, form?.code);
 		if (!result.ok) {

@@ -10,7 +10,9 @@ import type { RequestHandler } from './$types';
  */
 export const GET: RequestHandler = async ({ locals, url }) => {
 	if (!locals.user) return signInFirst(null)!;
-	return json(await listClasses(locals.user, { archived: url.searchParams.get('archived') === '1' }));
+	return json(
+		await listClasses(locals.user, { archived: url.searchParams.get('archived') === '1' })
+	);
 };
 
 export const POST: RequestHandler = async ({ locals, request }) => {

@@ -48,9 +48,12 @@ export const load: PageServerLoad = async ({ params, url }) => {
 
 function refused(result: Refusal, extra: Record<string, unknown> = {}) {
 	const status = { 'not-found': 404, forbidden: 403, conflict: 409, invalid: 422 }[result.reason];
-	return fail(status, { ...extra, message: result.message, field: 'field' in result ? result.field : null });
+	return fail(status, {
+		...extra,
+		message: result.message,
+		field: 'field' in result ? result.field : null
+	});
 }
-
 
 async function formData(request: Request): Promise<FormData | null> {
 	try {
@@ -70,12 +73,16 @@ export const actions: Actions = {
 	archive: async ({ params }) => {
 		const user = requireRole('teacher', 'admin');
 		const result = await updateClass(user, params.id, { archived: true });
-		return result.ok ? { done: 'Archived: its assignments are paused and nobody can join.' } : refused(result);
+		return result.ok
+			? { done: 'Archived: its assignments are paused and nobody can join.' }
+			: refused(result);
 	},
 	restore: async ({ params }) => {
 		const user = requireRole('teacher', 'admin');
 		const result = await updateClass(user, params.id, { archived: false });
-		return result.ok ? { done: 'Restored. Resume its assignments when you want new licks to flow again.' } : refused(result);
+		return result.ok
+			? { done: 'Restored. Resume its assignments when you want new licks to flow again.' }
+			: refused(result);
 	},
 	joining: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
@@ -89,7 +96,12 @@ export const actions: Actions = {
 		const form = await readForm(request);
 		const limit = classLimits.invite(user.id);
 		if (!limit.allowed) {
-			return fail(429, { form: 'invite', email: form?.email ?? '', message: `Too many invitations; try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`, field: null });
+			return fail(429, {
+				form: 'invite',
+				email: form?.email ?? '',
+				message: `Too many invitations; try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`,
+				field: null
+			});
 		}
 		const result = await inviteByEmail(user, params.id, { email: form?.email });
 		if (!result.ok) return refused(result, { form: 'invite', email: form?.email ?? '' });
@@ -103,12 +115,15 @@ export const actions: Actions = {
 		const user = requireRole('teacher', 'admin');
 		const form = await readForm(request);
 		const result = await removeMember(user, params.id, form?.userId);
-		return result.ok ? { done: 'Removed from the class. Their practice history stays with them.' } : refused(result);
+		return result.ok
+			? { done: 'Removed from the class. Their practice history stays with them.' }
+			: refused(result);
 	},
 	assign: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
 		const data = await formData(request);
-		if (!data) return fail(400, { form: 'assign', message: 'The form could not be read.', field: null });
+		if (!data)
+			return fail(400, { form: 'assign', message: 'The form could not be read.', field: null });
 		const keys = data.getAll('keys').map(String);
 		const input = {
 			deckId: data.get('deckId'),
@@ -129,8 +144,12 @@ export const actions: Actions = {
 	pause: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
 		const form = await readForm(request);
-		const result = await updateAssignment(user, form?.assignmentId, { paused: form?.paused === 'true' });
-		return result.ok ? { done: result.assignment.paused ? 'Paused.' : 'Resumed.' } : refused(result);
+		const result = await updateAssignment(user, form?.assignmentId, {
+			paused: form?.paused === 'true'
+		});
+		return result.ok
+			? { done: result.assignment.paused ? 'Paused.' : 'Resumed.' }
+			: refused(result);
 	},
 	edit: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
@@ -140,15 +159,18 @@ export const actions: Actions = {
 			targetTempo: form?.targetTempo || null,
 			endDate: form?.endDate || null
 		});
-		return result.ok ? { done: 'Assignment saved.' } : refused(result, { form: `edit-${form?.assignmentId}` });
+		return result.ok
+			? { done: 'Assignment saved.' }
+			: refused(result, { form: `edit-${form?.assignmentId}` });
 	},
 	unassign: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
 		const form = await readForm(request);
 		const result = await deleteAssignment(user, form?.assignmentId);
 		return result.ok
-			? { done: `Assignment removed; ${result.retired} licks not yet started will not arrive. Practised ones stay with the learners.` }
+			? {
+					done: `Assignment removed; ${result.retired} licks not yet started will not arrive. Practised ones stay with the learners.`
+				}
 			: refused(result);
 	}
 };
-

@@ -26,7 +26,10 @@ export const actions: Actions = {
 		const form = await readForm(request);
 		const result = await postComment(user, form?.cardId, { text: form?.text });
 		if (!result.ok) {
-			return fail(result.reason === 'invalid' ? 422 : 404, { text: form?.text ?? '', message: result.message });
+			return fail(result.reason === 'invalid' ? 422 : 404, {
+				text: form?.text ?? '',
+				message: result.message
+			});
 		}
 		return { done: true };
 	}

@@ -8,7 +8,7 @@
 import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type InferCreationAttributes } from 'sequelize';
 import { closeDb, openDb } from '../src/lib/server/db/index';
 import { migrate } from '../src/lib/server/db/migrate';
 import { Card, Deck, DeckLick, Lick, Review, User } from '../src/lib/server/db/models/index';
@@ -60,7 +60,7 @@ async function makeDeck(ownerId: string, size: number) {
 let n = 0;
 
 async function fillReviews(cards: Card[], days: number, perDay: number, random: () => number) {
-	let batch: Parameters<typeof Review.bulkCreate>[0] = [];
+	let batch: InferCreationAttributes<Review>[] = [];
 	for (let d = days; d >= 1; d--) {
 		const day = addDays(TODAY, -d + 1);
 		for (let i = 0; i < perDay; i++) {
@@ -81,7 +81,7 @@ async function fillReviews(cards: Card[], days: number, perDay: number, random: 
 				gradeMs: 3_000,
 				stateBefore: '{}',
 				stateAfter: '{}'
-			});
+			} as InferCreationAttributes<Review>);
 			if (batch.length === 2000) {
 				await Review.bulkCreate(batch);
 				batch = [];

@@ -32,3 +32,21 @@ export const classLimits = {
 	/** 20 join tries per 15 minutes per user. */
 	join: (userId: string) => joinLimiter.consume(userId)
 };
+
+/**
+ * A submitted form's text fields (first value of each), or null when the body is not a form.
+ * The class forms post plain actions whose fields the class services check themselves.
+ */
+export async function readFields(request: Request): Promise<Record<string, string> | null> {
+	let data: FormData;
+	try {
+		data = await request.formData();
+	} catch {
+		return null;
+	}
+	const fields: Record<string, string> = {};
+	for (const [name, value] of data) {
+		if (typeof value === 'string' && !(name in fields)) fields[name] = value;
+	}
+	return fields;
+}

@@ -260,17 +260,8 @@ async function promptsFor(
 			);
 			continue;
 		}
-		const body = {
-			abc: variant.abc,
-			key: variant.key,
-			writtenKey: variant.writtenKey,
-			quality: variant.quality,
-			instrument: variant.instrument,
-			warnings: variant.warnings,
-			notes: variant.notes,
-			devices: variant.devices,
-			handWritten: variant.handWritten
-		};
+		// The engine's whole answer but its `ok` flag (PromptVariant follows VariantSuccess).
+		const { ok: _ok, ...body } = variant;
 		const targetTempo = assignment?.targetTempo ?? lick.tempo;
 		const previews = previewDue(card.id, card, now, { desiredRetention: learner.desiredRetention });
 		items.push({

@@ -1,61 +1,56 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
+import { signUpSchema } from '$lib/forms/account';
 import { signUp } from '$lib/server/auth/accounts';
-import { readForm } from '$lib/server/auth/form';
 import { consumeSignUp } from '$lib/server/auth/limits';
 import { homeFor, safeNext } from '$lib/server/auth/redirects';
 import { acceptInvitation, previewInvitation } from '$lib/server/classes/invitations';
 import { startSession } from '$lib/server/auth/session';
+import { emptyForm, readForm, unreadable, refuse, refuseField, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	if (locals.user) redirect(303, homeFor(locals.user.role));
-	// Arriving from a class invitation: the token rides along in the form, and the page says where
-	// the new account will land.
+	// Arriving from a class invitation: the page says where the new account will land. The token
+	// stays in the address, which the form posts back to, so the action reads it from there.
 	const invitation = url.searchParams.get('invitation');
 	const preview = invitation ? await previewInvitation(invitation) : null;
 	return {
-		invitation: preview?.status === 'open' ? invitation : null,
-		invitedTo: preview?.status === 'open' ? preview.className : null,
-		next: url.searchParams.get('next')
+		form: await emptyForm(signUpSchema),
+		invitedTo: preview?.status === 'open' ? preview.className : null
 	};
 };
 
 export const actions: Actions = {
-	default: async ({ request, cookies, getClientAddress }) => {
-		const form = await readForm(request);
-		const empty = { name: '', email: '', role: 'learner' };
-		if (!form)
-			return fail(400, { values: empty, field: null, message: 'The form could not be read.' });
-		const values = {
-			name: form.name ?? '',
-			email: form.email ?? '',
-			role: form.role ?? 'learner'
-		};
+	default: async ({ request, cookies, getClientAddress, url }) => {
+		const form = await readForm(request, signUpSchema);
+		if (!form) return unreadable(signUpSchema);
 
-		const limit = consumeSignUp(getClientAddress(), values.email);
+		const limit = consumeSignUp(getClientAddress(), form.data.email);
 		if (!limit.allowed) {
-			return fail(429, {
-				values,
-				field: null,
-				message: `Too many sign-ups from here. Try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`
-			});
+			const minutes = Math.ceil(limit.retryAfterSeconds / 60);
+			return say(
+				form,
+				`Too many sign-ups from here. Try again in ${minutes} minutes.`,
+				429,
+				'password'
+			);
 		}
+		if (!form.valid) return refuse(form, 'password');
 
-		const result = await signUp({ ...values, password: form.password });
+		const result = await signUp(form.data);
 		if (!result.ok) {
-			return fail(result.reason === 'email-taken' ? 409 : 422, {
-				values,
-				field: result.field,
-				message: result.message
-			});
+			const status = result.reason === 'email-taken' ? 409 : 422;
+			return refuseField(form, result.field, result.message, status, 'password');
 		}
 		// Signed in straight away; the confirmation link can be followed whenever the mail arrives.
 		await startSession(cookies, result.user.id);
-		if (form.invitation) {
-			const joined = await acceptInvitation(result.user, form.invitation);
+		const invitation = url.searchParams.get('invitation');
+		if (invitation) {
+			const joined = await acceptInvitation(result.user, invitation);
 			if (joined.ok) redirect(303, `/classes?joined=${encodeURIComponent(joined.className)}`);
 		}
-		if (form.next) redirect(303, safeNext(form.next));
+		const next = url.searchParams.get('next');
+		if (next) redirect(303, safeNext(next));
 		redirect(303, `/verify-email?sent=${result.mailSent ? '1' : '0'}`);
 	}
 };

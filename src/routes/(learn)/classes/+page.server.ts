@@ -1,9 +1,8 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireUser } from '$lib/server/auth/guard';
-import { readForm } from '$lib/server/auth/form';
 import { decksAssignedTo } from '$lib/server/classes/assignments';
 import { listClasses } from '$lib/server/classes/classes';
-import { classLimits } from '$lib/server/classes/http';
+import { classLimits, readFields } from '$lib/server/classes/http';
 import { joinByCode, leaveClass } from '$lib/server/classes/members';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -20,7 +19,7 @@ export const load: PageServerLoad = async ({ url }) => {
 export const actions: Actions = {
 	join: async ({ request }) => {
 		const user = requireUser();
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const limit = classLimits.join(user.id);
 		if (!limit.allowed) {
 			return fail(429, {
@@ -37,7 +36,7 @@ export const actions: Actions = {
 	},
 	leave: async ({ request }) => {
 		const user = requireUser();
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await leaveClass(user, form?.classId);
 		if (!result.ok) return fail(404, { code: '', message: result.message });
 		return { left: true };

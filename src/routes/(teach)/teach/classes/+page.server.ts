@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/guard';
-import { readForm } from '$lib/server/auth/form';
 import { createClass, listClasses } from '$lib/server/classes/classes';
+import { readFields } from '$lib/server/classes/http';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
@@ -13,7 +13,7 @@ export const load: PageServerLoad = async () => {
 export const actions: Actions = {
 	create: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await createClass(user, { name: form?.name });
 		if (!result.ok) {
 			return fail(result.reason === 'invalid' ? 422 : 403, {

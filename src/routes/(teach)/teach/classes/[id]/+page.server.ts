@@ -1,6 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/guard';
-import { readForm } from '$lib/server/auth/form';
 import {
 	assignableDecks,
 	createAssignment,
@@ -13,7 +12,7 @@ import type { Refusal } from '$lib/server/classes/common';
 import { inviteByEmail, listInvitations } from '$lib/server/classes/invitations';
 import { listMembers, removeMember } from '$lib/server/classes/members';
 import { classProgress } from '$lib/server/classes/progress';
-import { classLimits } from '$lib/server/classes/http';
+import { classLimits, readFields } from '$lib/server/classes/http';
 import { practiceDay } from '$lib/practice/day';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -66,7 +65,7 @@ async function formData(request: Request): Promise<FormData | null> {
 export const actions: Actions = {
 	rename: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await updateClass(user, params.id, { name: form?.name });
 		return result.ok ? { done: 'Renamed.' } : refused(result, { form: 'rename' });
 	},
@@ -86,14 +85,14 @@ export const actions: Actions = {
 	},
 	joining: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const change = form?.what === 'link' ? { joinLink: form?.to } : { joinCode: form?.to };
 		const result = await updateClass(user, params.id, change);
 		return result.ok ? { done: 'Saved.' } : refused(result);
 	},
 	invite: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const limit = classLimits.invite(user.id);
 		if (!limit.allowed) {
 			return fail(429, {
@@ -113,7 +112,7 @@ export const actions: Actions = {
 	},
 	remove: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await removeMember(user, params.id, form?.userId);
 		return result.ok
 			? { done: 'Removed from the class. Their practice history stays with them.' }
@@ -143,7 +142,7 @@ export const actions: Actions = {
 	},
 	pause: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await updateAssignment(user, form?.assignmentId, {
 			paused: form?.paused === 'true'
 		});
@@ -153,7 +152,7 @@ export const actions: Actions = {
 	},
 	edit: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await updateAssignment(user, form?.assignmentId, {
 			newPerDay: form?.newPerDay,
 			targetTempo: form?.targetTempo || null,
@@ -165,7 +164,7 @@ export const actions: Actions = {
 	},
 	unassign: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await deleteAssignment(user, form?.assignmentId);
 		return result.ok
 			? {

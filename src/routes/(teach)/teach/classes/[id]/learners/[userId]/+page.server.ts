@@ -1,8 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/guard';
-import { readForm } from '$lib/server/auth/form';
 import { listComments, postComment } from '$lib/server/classes/comments';
 import { learnerDetail } from '$lib/server/classes/learner';
+import { readFields } from '$lib/server/classes/http';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
@@ -23,7 +23,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 export const actions: Actions = {
 	comment: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readForm(request);
+		const form = await readFields(request);
 		const result = await postComment(user, form?.cardId, { text: form?.text });
 		if (!result.ok) {
 			return fail(result.reason === 'invalid' ? 422 : 404, {

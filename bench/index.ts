@@ -186,3 +186,6 @@ if (sink === 0) console.log('(nothing computed)');
 
 // The drill's figures: today's queue over 5,000 cards, and review writes under load.
 await import('./drill');
+// Class progress and the heat map over a large review log (bench/classes.ts).
+const { benchClasses } = await import('./classes');
+console.log(['', ...(await benchClasses())].join('\n'));

@@ -25,6 +25,20 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	/** When the address was confirmed through the mailed link; null until then. */
 	declare emailVerifiedAt: CreationOptional<Date | null>;
 	declare settings: CreationOptional<UserSettings>;
+	/** IANA zone of the practice day and the mails (queried: an indexed column). */
+	declare timezone: CreationOptional<string>;
+	/** Local hour (0–23) of the daily reminder and of the weekly summary. */
+	declare digestHour: CreationOptional<number>;
+	/** Whether the daily reminder (`digest`) is sent. */
+	declare digestEnabled: CreationOptional<boolean>;
+	/** Local hour the practice day starts. */
+	declare dayStartHour: CreationOptional<number>;
+	/** Whether a teacher gets the weekly class summary. */
+	declare summaryEnabled: CreationOptional<boolean>;
+	/** ISO weekday (1 Monday … 7 Sunday) of the weekly summary. */
+	declare summaryWeekday: CreationOptional<number>;
+	/** Key that signs this person's unsubscribe links; null until a scheduled mail needs one. */
+	declare mailSecret: CreationOptional<string | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -53,6 +67,13 @@ export function initUser(sequelize: Sequelize): void {
 					return normalizeSettings(this.getDataValue('settings'));
 				}
 			},
+			timezone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+			digestHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 7 },
+			digestEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+			dayStartHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 4 },
+			summaryEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+			summaryWeekday: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+			mailSecret: { type: DataTypes.STRING(64), allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

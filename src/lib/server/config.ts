@@ -17,6 +17,11 @@ export interface Config {
 	/** Public base URL used in links inside mails (falls back to ORIGIN). */
 	baseUrl: string;
 	production: boolean;
+	/**
+	 * When the scheduled mails (Daily reminder, Weekly class summary) are looked for: a cron
+	 * pattern (croner syntax, seconds optional), or null when `DIGEST_SCHEDULE=off`.
+	 */
+	digestSchedule: string | null;
 }
 
 function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -28,7 +33,9 @@ function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
 		smtpUrl: env.SMTP_URL || null,
 		mailFrom: env.MAIL_FROM || 'Twelvefold <no-reply@twelvefold.test>',
 		baseUrl: (env.PUBLIC_BASE_URL || env.ORIGIN || `http://localhost:${port}`).replace(/\/$/, ''),
-		production: env.NODE_ENV === 'production'
+		production: env.NODE_ENV === 'production',
+		digestSchedule:
+			env.DIGEST_SCHEDULE === 'off' ? null : env.DIGEST_SCHEDULE || '*/5 * * * *'
 	};
 }
 

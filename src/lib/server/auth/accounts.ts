@@ -453,6 +453,11 @@ export async function updateSettings(
 	const user = await User.findByPk(userId);
 	if (!user) return { ok: false, reason: 'not-found', message: 'This account no longer exists.' };
 	user.settings = read.settings;
+	// The scheduler queries these as indexed columns; they follow the form until settings live
+	// in the columns alone.
+	user.timezone = read.settings.timezone;
+	user.digestHour = read.settings.digestHour;
+	user.digestEnabled = read.settings.digestEnabled;
 	await user.save();
 	return { ok: true, user: toSessionUser(user) };
 }

@@ -72,7 +72,11 @@ export async function seedDemo(password: string, now = new Date()): Promise<Seed
 					role: account.role,
 					passwordHash: hash,
 					emailVerifiedAt: now,
-					settings: normalizeSettings(account.settings)
+					settings: normalizeSettings(account.settings),
+					// The columns the mail scheduler queries, in step with the settings.
+					timezone: normalizeSettings(account.settings).timezone,
+					digestHour: normalizeSettings(account.settings).digestHour,
+					digestEnabled: normalizeSettings(account.settings).digestEnabled
 				},
 				{ transaction }
 			);

@@ -2,6 +2,7 @@ import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import { getConfig } from '../config';
 import { getDb } from '../db/index';
 import { User } from '../db/models/index';
+import { setMailChoice } from './choices';
 import { changeRows } from './sql';
 
 /**
@@ -12,15 +13,8 @@ import { changeRows } from './sql';
  * from last month.
  */
 
-/** The scheduled mails a person can turn off: the daily reminder and the weekly class summary. */
-export const MAIL_CHOICES = ['digest', 'summary'] as const;
-export type MailChoice = (typeof MAIL_CHOICES)[number];
-
-/** The screen's name of each kind of mail. */
-export const MAIL_CHOICE_NAMES: Record<MailChoice, string> = {
-	digest: 'Daily reminder',
-	summary: 'Weekly class summary'
-};
+export { MAIL_CHOICES, MAIL_CHOICE_NAMES, type MailChoice } from './choices';
+import type { MailChoice } from './choices';
 
 function sign(secret: string, userId: string, kind: MailChoice): string {
 	return createHmac('sha256', secret).update(`unsubscribe:${userId}:${kind}`).digest('base64url');
@@ -111,33 +105,6 @@ export async function readUnsubscribeToken(token: unknown): Promise<ReadTokenRes
 		email: user.email,
 		enabled: kind === 'digest' ? user.digestEnabled : user.summaryEnabled
 	};
-}
-
-/**
- * Turn one kind of scheduled mail on or off for a person (the unsubscribe link, its undo, and
- * the settings form). Answers whether anything changed.
- * @example await setMailChoice(user.id, 'digest', false) // true the first time, false after
- */
-export async function setMailChoice(
-	userId: string,
-	kind: MailChoice,
-	enabled: boolean
-): Promise<boolean> {
-	getDb();
-	const user = await User.findByPk(userId);
-	if (!user) return false;
-	const current = kind === 'digest' ? user.digestEnabled : user.summaryEnabled;
-	if (current === enabled) return false;
-	if (kind === 'digest') {
-		user.digestEnabled = enabled;
-		// The practice form still reads the reminder switch from the settings JSON; keep both
-		// in step until settings live in the columns alone.
-		user.settings = { ...user.settings, digestEnabled: enabled };
-	} else {
-		user.summaryEnabled = enabled;
-	}
-	await user.save();
-	return true;
 }
 
 export type UnsubscribeResult =

@@ -3,11 +3,26 @@ import { changePassword, deleteAccount, updateSettings } from '$lib/server/auth/
 import { readForm } from '$lib/server/auth/form';
 import { requireUser } from '$lib/server/auth/guard';
 import { deleteSessionCookie } from '$lib/server/auth/session';
+import { superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { readMailChoices, setSummaryChoice } from '$lib/server/digest/choices';
+import { summaryChoiceSchema } from '$lib/forms/summary-choice';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ url }) => {
+export const load: PageServerLoad = async ({ url }) => {
 	const user = requireUser();
+	const choices = await readMailChoices(user.id);
+	// The Weekly class summary is a teacher's mail; learners see only the Daily reminder.
+	const teaches = user.role === 'teacher' || user.role === 'admin';
 	return {
+		summaryForm:
+			teaches && choices
+				? await superValidate(
+						{ summaryEnabled: choices.summaryEnabled, summaryWeekday: choices.summaryWeekday },
+						zod4(summaryChoiceSchema),
+						{ errors: false }
+					)
+				: null,
 		account: {
 			name: user.name,
 			email: user.email,
@@ -45,6 +60,17 @@ export const actions: Actions = {
 			});
 		}
 		redirect(303, '/settings?changed=practice');
+	},
+
+	summary: async ({ request }) => {
+		const user = requireUser();
+		if (user.role !== 'teacher' && user.role !== 'admin') {
+			return fail(403, { form: 'summary', field: null, message: 'The Weekly class summary is for teachers.' });
+		}
+		const summaryForm = await superValidate(request, zod4(summaryChoiceSchema));
+		if (!summaryForm.valid) return fail(422, { summaryForm });
+		await setSummaryChoice(user.id, summaryForm.data);
+		redirect(303, '/settings?changed=summary');
 	},
 
 	password: async ({ request, locals }) => {

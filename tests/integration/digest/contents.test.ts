@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ParsedMail } from 'mailparser';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { runScheduledMail } from '../../../src/lib/server/digest/send';
 import { MailSend } from '../../../src/lib/server/db/models/index';
 import {

@@ -41,15 +41,7 @@ export async function makeUser(
 		digestHour: fields.digestHour ?? 7,
 		dayStartHour: fields.dayStartHour ?? 4,
 		digestEnabled: fields.digestEnabled ?? true,
-		settings: {
-			timezone: fields.timezone ?? 'UTC',
-			instrument: 'concert',
-			digestHour: fields.digestHour ?? 7,
-			digestEnabled: fields.digestEnabled ?? true,
-			desiredRetention: 0.9,
-			dailyMinutes: 15,
-			keyOrder: 'weighted'
-		}
+		settings: { instrument: 'concert', newPerDay: 5 }
 	});
 }
 

@@ -3,7 +3,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { resetConfig } from '../../../src/lib/server/config';
 import { closeDb, openDb } from '../../../src/lib/server/db/index';
 import { migrate } from '../../../src/lib/server/db/migrate';

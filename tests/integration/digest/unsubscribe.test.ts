@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ParsedMail } from 'mailparser';
-import { openTestWorld, type TestWorld } from '../auth/setup';
-import { fakeEvent } from '../auth/fake-event';
+import { openTestWorld, type TestWorld } from '../support/world';
+import { fakeEvent } from '../support/fake-event';
 import { runScheduledMail } from '../../../src/lib/server/digest/send';
 import { readMailChoices } from '../../../src/lib/server/digest/choices';
 import { User } from '../../../src/lib/server/db/models/index';

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { runScheduledMail } from '../../../src/lib/server/digest/send';
 import { MailSend, User } from '../../../src/lib/server/db/models/index';
 import { makeCard, makeLick, makeUser, readOutbox, recipientsOf } from './fixtures';

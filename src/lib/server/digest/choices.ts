@@ -57,14 +57,8 @@ export async function setMailChoice(
 	if (!user) return false;
 	const current = kind === 'digest' ? user.digestEnabled : user.summaryEnabled;
 	if (current === enabled) return false;
-	if (kind === 'digest') {
-		user.digestEnabled = enabled;
-		// The practice form still reads the reminder switch from the settings JSON; keep both
-		// in step until settings live in the columns alone.
-		user.settings = { ...user.settings, digestEnabled: enabled };
-	} else {
-		user.summaryEnabled = enabled;
-	}
+	if (kind === 'digest') user.digestEnabled = enabled;
+	else user.summaryEnabled = enabled;
 	await user.save();
 	return true;
 }

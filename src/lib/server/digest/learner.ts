@@ -10,6 +10,7 @@ import {
 	type Streak,
 	type WeakKey
 } from '../../practice/digest';
+import { normalizeSettings } from '../../practice/settings';
 import { selectRows, toDate, toNumber } from './sql';
 
 /**
@@ -26,7 +27,7 @@ export interface MailRecipient {
 	timezone: string;
 	digestHour: number;
 	dayStartHour: number;
-	/** The settings JSON as stored (for the learner's own pace of new licks). */
+	/** The settings JSON as stored (for the learner's own pace of new licks, `newPerDay`). */
 	settings: unknown;
 }
 
@@ -58,26 +59,6 @@ export function worthSending(digest: LearnerDigest): boolean {
 		digest.reviewsDue + digest.newLicks > 0 ||
 		digest.news.assignments.length + digest.news.comments.length > 0
 	);
-}
-
-/** The learner's own pace of new licks: a setting once the drill keeps one, else five. */
-const DEFAULT_NEW_PER_DAY = 5;
-
-function ownNewPerDay(settings: unknown): number {
-	const raw =
-		typeof settings === 'string'
-			? (() => {
-					try {
-						return JSON.parse(settings) as unknown;
-					} catch {
-						return null;
-					}
-				})()
-			: settings;
-	const value = (raw as { newPerDay?: unknown } | null)?.newPerDay;
-	return Number.isInteger(value) && (value as number) >= 0 && (value as number) <= 50
-		? (value as number)
-		: DEFAULT_NEW_PER_DAY;
 }
 
 /** Days of history the weak keys are read from. */
@@ -131,7 +112,7 @@ export async function gatherLearnerDigest(
 				transaction
 			)
 		: [];
-	const paceOf = new Map<string | null, number>([[null, ownNewPerDay(who.settings)]]);
+	const paceOf = new Map<string | null, number>([[null, normalizeSettings(who.settings).newPerDay]]);
 	for (const a of paces) {
 		if (a.start <= day && (a.finish === null || day <= a.finish)) paceOf.set(a.id, toNumber(a.pace));
 	}

@@ -2,13 +2,22 @@ import { fail, redirect } from '@sveltejs/kit';
 import { signUp } from '$lib/server/auth/accounts';
 import { readForm } from '$lib/server/auth/form';
 import { consumeSignUp } from '$lib/server/auth/limits';
-import { homeFor } from '$lib/server/auth/redirects';
+import { homeFor, safeNext } from '$lib/server/auth/redirects';
+import { acceptInvitation, previewInvitation } from '$lib/server/classes/invitations';
 import { startSession } from '$lib/server/auth/session';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ locals }) => {
+export const load: PageServerLoad = async ({ locals, url }) => {
 	if (locals.user) redirect(303, homeFor(locals.user.role));
-	return {};
+	// Arriving from a class invitation: the token rides along in the form, and the page says where
+	// the new account will land.
+	const invitation = url.searchParams.get('invitation');
+	const preview = invitation ? await previewInvitation(invitation) : null;
+	return {
+		invitation: preview?.status === 'open' ? invitation : null,
+		invitedTo: preview?.status === 'open' ? preview.className : null,
+		next: url.searchParams.get('next')
+	};
 };
 
 export const actions: Actions = {
@@ -42,6 +51,11 @@ export const actions: Actions = {
 		}
 		// Signed in straight away; the confirmation link can be followed whenever the mail arrives.
 		await startSession(cookies, result.user.id);
+		if (form.invitation) {
+			const joined = await acceptInvitation(result.user, form.invitation);
+			if (joined.ok) redirect(303, `/classes?joined=${encodeURIComponent(joined.className)}`);
+		}
+		if (form.next) redirect(303, safeNext(form.next));
 		redirect(303, `/verify-email?sent=${result.mailSent ? '1' : '0'}`);
 	}
 };

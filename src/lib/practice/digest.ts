@@ -1,91 +1,53 @@
 /**
- * What the daily reminder and the weekly class summary say, computed from plain values: the
- * streak from practice days, the weakest keys from tallies of grades per key, how long today's
- * licks take from the learner's own timings, whether a person's mail hour has come, and one line
- * of encouragement. Pure: days, hours and tallies are passed in.
+ * What the daily reminder and the weekly class summary compute beyond the drill's own figures:
+ * a class's weakest keys from tallies of grades per key (by the drill's measure of key strength),
+ * the weekday a summary goes out on, and one line of encouragement. Pure.
  */
-import { chromaOf, parseNoteName } from '../music/pitch';
-import { addDays, daysBetween } from './day';
-
-/** A run of consecutive practice days. */
-export interface Streak {
-	/** Consecutive practice days ending today (when practised today) or yesterday. */
-	days: number;
-	/** Whether today already has a review, so the streak is kept. */
-	practisedToday: boolean;
-}
-
-/**
- * The streak on `today` from the practice days that have at least one review (any order,
- * repeats allowed). A day without practice before today ends it; today itself may still come.
- * @example streakOn(['2026-03-01', '2026-02-28'], '2026-03-02') // { days: 2, practisedToday: false }
- */
-export function streakOn(practiceDays: Iterable<string>, today: string): Streak {
-	const days = new Set(practiceDays);
-	const practisedToday = days.has(today);
-	let day = practisedToday ? today : addDays(today, -1);
-	let count = 0;
-	while (days.has(day)) {
-		count++;
-		day = addDays(day, -1);
-	}
-	return { days: count, practisedToday };
-}
+import { daysBetween } from './day';
+import { keyPitchClass } from './keys';
 
 /** Reviews of one key as stored (a concert tonic spelled as the prompt showed it). */
 export interface KeyTally {
 	key: string;
 	reviews: number;
-	/** Reviews graded 1, the lowest grade: not played from memory. */
-	misses: number;
-	/** Reviews graded 2: played, with trouble. */
-	shaky: number;
+	/** Sum of the grades (1–4) of those reviews. */
+	gradeSum: number;
 }
 
 export interface WeakKey {
 	/** The spelling most reviews used, e.g. 'Eb' (F# and Gb are one key here). */
 	key: string;
 	reviews: number;
-	/** Share of reviews missed, a shaky one counting half: 0…1. */
-	missRate: number;
+	/** The drill's key strength: mean grade mapped to 0–1 (grade 1 → 0, grade 4 → 1). */
+	strength: number;
 }
 
 /**
- * The keys with the most trouble, worst first: enharmonic spellings are one key, and a key needs
- * at least one miss or shaky review to be called weak. The rate is pulled towards zero by two
- * imagined clean reviews, so one miss in one try does not outrank three in ten.
- * @example weakestKeys([{ key: 'Eb', reviews: 10, misses: 3, shaky: 0 }, { key: 'C', reviews: 9, misses: 0, shaky: 0 }]) // [{ key: 'Eb', reviews: 10, missRate: 0.3 }]
+ * The weakest keys, weakest first, by the drill's key strength (the learner's progress page uses
+ * the same measure): enharmonic spellings are one key, and a key played without a flaw (strength
+ * 1) is not called weak.
+ * @example weakestKeys([{ key: 'Eb', reviews: 4, gradeSum: 8 }, { key: 'C', reviews: 3, gradeSum: 12 }]) // [{ key: 'Eb', reviews: 4, strength: 0.333… }]
  */
 export function weakestKeys(tallies: readonly KeyTally[], count = 3): WeakKey[] {
-	const byChroma = new Map<number, { spellings: Map<string, number>; tally: KeyTally }>();
+	const byClass = new Map<number, { spellings: Map<string, number>; reviews: number; sum: number }>();
 	for (const tally of tallies) {
-		const note = parseNoteName(tally.key);
-		if (!note || tally.reviews <= 0) continue;
-		const chroma = chromaOf(note);
-		const entry = byChroma.get(chroma) ?? {
-			spellings: new Map<string, number>(),
-			tally: { key: tally.key, reviews: 0, misses: 0, shaky: 0 }
-		};
+		const pc = keyPitchClass(tally.key);
+		if (pc === null || tally.reviews <= 0) continue;
+		const entry = byClass.get(pc) ?? { spellings: new Map<string, number>(), reviews: 0, sum: 0 };
 		entry.spellings.set(tally.key, (entry.spellings.get(tally.key) ?? 0) + tally.reviews);
-		entry.tally.reviews += tally.reviews;
-		entry.tally.misses += tally.misses;
-		entry.tally.shaky += tally.shaky;
-		byChroma.set(chroma, entry);
+		entry.reviews += tally.reviews;
+		entry.sum += tally.gradeSum;
+		byClass.set(pc, entry);
 	}
-	const ranked = [...byChroma.values()]
-		.filter(({ tally }) => tally.misses + tally.shaky > 0)
-		.map(({ spellings, tally }) => {
-			const trouble = tally.misses + tally.shaky / 2;
-			const key = [...spellings].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))[0][0];
-			return {
-				key,
-				reviews: tally.reviews,
-				missRate: trouble / tally.reviews,
-				score: trouble / (tally.reviews + 2)
-			};
-		})
-		.sort((a, b) => b.score - a.score || b.reviews - a.reviews || a.key.localeCompare(b.key));
-	return ranked.slice(0, count).map(({ key, reviews, missRate }) => ({ key, reviews, missRate }));
+	return [...byClass.values()]
+		.map(({ spellings, reviews, sum }) => ({
+			key: [...spellings].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))[0][0],
+			reviews,
+			strength: (sum / reviews - 1) / 3
+		}))
+		.filter((k) => k.strength < 1)
+		.sort((a, b) => a.strength - b.strength || b.reviews - a.reviews || a.key.localeCompare(b.key))
+		.slice(0, count);
 }
 
 /**
@@ -94,53 +56,6 @@ export function weakestKeys(tallies: readonly KeyTally[], count = 3): WeakKey[] 
  */
 export function formatKey(key: string): string {
 	return key.replace(/b/g, '♭').replace(/#/g, '♯');
-}
-
-/** When the learner has no timed reviews yet: a prompt played, revealed and graded. */
-export const DEFAULT_REVIEW_MS = 40_000;
-/** A new lick is taught before it is tested: about twice a review. */
-export const NEW_LICK_FACTOR = 2;
-
-/**
- * The typical time of one review from the learner's own timings (ms from prompt to grade), the
- * median so that one prompt left open during a phone call does not count; null with fewer than
- * five timings.
- * @example typicalReviewMs([30_000, 32_000, 35_000, 600_000, 31_000]) // 32000
- */
-export function typicalReviewMs(timings: readonly number[]): number | null {
-	const usable = timings.filter((ms) => Number.isFinite(ms) && ms > 0).sort((a, b) => a - b);
-	if (usable.length < 5) return null;
-	const middle = Math.floor(usable.length / 2);
-	const median =
-		usable.length % 2 ? usable[middle] : Math.round((usable[middle - 1] + usable[middle]) / 2);
-	// Between a glance and a long look: beyond ten minutes the timing is not practice.
-	return Math.min(Math.max(median, 5_000), 600_000);
-}
-
-/**
- * Whole minutes (at least one when anything is due) for today's reviews and new licks.
- * @example estimateMinutes({ reviews: 10, newLicks: 2, msPerReview: 30_000 }) // 7
- */
-export function estimateMinutes(input: {
-	reviews: number;
-	newLicks: number;
-	msPerReview: number | null;
-}): number {
-	const per = input.msPerReview ?? DEFAULT_REVIEW_MS;
-	const total = input.reviews * per + input.newLicks * per * NEW_LICK_FACTOR;
-	return total > 0 ? Math.max(1, Math.round(total / 60_000)) : 0;
-}
-
-/**
- * Whether a mail set for local hour `mailHour` is due at local hour `localHour`, counting hours
- * from the start of the practice day: with the day starting at 4, a mail at 2 belongs to the
- * small hours at the end of the day, not before its start. Hours skipped by a clock change count
- * as passed.
- * @example mailHourHasCome(9, 7, 4) // true; mailHourHasCome(3, 2, 4) // true; mailHourHasCome(23, 2, 4) // false
- */
-export function mailHourHasCome(localHour: number, mailHour: number, dayStartHour: number): boolean {
-	const position = (hour: number) => (((hour - dayStartHour) % 24) + 24) % 24;
-	return position(localHour) >= position(mailHour);
 }
 
 /**

@@ -34,7 +34,7 @@ beforeAll(async () => {
 	const off = await makeUser({ email: 'off@example.com', digestEnabled: false });
 
 	const licks = [];
-	for (const title of ['Blue turn', 'Side step', 'Octave fall', 'Long fill', 'Third rail', 'Quiet one']) {
+	for (const title of ['Blue turn', 'Side step', 'Octave fall', 'Long fill', 'Third rail', 'Quiet one', 'Up the stairs', 'Back door', 'Last call']) {
 		licks.push(await makeLick(teacher.id, title));
 	}
 	// Three reviews due before the practice day ends (05:00 tomorrow is too late for one of them).
@@ -52,7 +52,7 @@ beforeAll(async () => {
 		newPerDay: 2,
 		createdAt: new Date('2026-03-01T10:00:00Z')
 	});
-	for (const lick of licks.slice(0, 3)) {
+	for (const lick of licks.slice(6, 9)) {
 		await makeCard(theo.id, lick.id, { state: 0, quality: '7alt', assignmentId: assignment.id });
 	}
 	// A streak of three days ending yesterday, with trouble in E-flat and F-sharp / G-flat.
@@ -65,7 +65,7 @@ beforeAll(async () => {
 		['2026-03-01', 'Gb', 1],
 		['2026-03-01', 'C', 4],
 		['2026-03-01', 'C', 3],
-		['2026-01-20', 'A', 1]
+		['2025-11-20', 'A', 1]
 	];
 	for (const [day, key, grade] of grades) await makeReview(reviewed, { day, key, grade });
 	await makeComment(reviewed.id, teacher.id, 'Lean on the b9 in bar two;\nlet it ring.', new Date('2026-03-01T12:00:00Z'));
@@ -98,9 +98,10 @@ describe('the Daily reminder', () => {
 
 	it('counts reviews due today, new licks at each source’s pace, and minutes from the learner’s own timings', () => {
 		const [mail] = mails;
-		// 3 reviews + 2 own new + 2 of the class's 3 (two a day); 24 s a prompt, new ones twice that.
-		expect(mail.subject).toBe('Today: 7 licks, about 4 minutes');
-		expect(mail.text).toContain('to review: 3\nnew today: 4\nminutes, about: 4');
+		// The drill's queue: 3 reviews + 2 own new + 2 of the class's 3 (two a day); 24 s a prompt
+		// from the learner's timings, three prompts for a new lick: (3 + 4 × 3) × 24 s = 6 min.
+		expect(mail.subject).toBe('Today: 7 licks, about 6 minutes');
+		expect(mail.text).toContain('to review: 3\nnew today: 4\nminutes, about: 6');
 		expect(mail.text).toContain('worked out from how long your recent prompts took you');
 	});
 
@@ -114,13 +115,15 @@ describe('the Daily reminder', () => {
 		expect(mails[0].text).toContain('3 days in a row. Practise today to make it 4.');
 	});
 
-	it('names the three weakest keys of the last four weeks, enharmonic spellings together', () => {
+	it('names the three weakest keys by the drill’s key strength, enharmonic spellings together', () => {
+		// Mean grade mapped to 0–1: G♭ and F♯ (1, 2) 17 %, E♭ (1, 1, 3) 22 %, C (3, 4) 83 %.
 		expect(mails[0].text).toContain(
-			'- E♭: 67 % missed over 3 prompts in the last four weeks\n' +
-				'- F♯: 75 % missed over 2 prompts in the last four weeks'
+			'- G♭: strength 17 % over 2 prompts\n' +
+				'- E♭: strength 22 % over 3 prompts\n' +
+				'- C: strength 83 % over 2 prompts\n'
 		);
-		// A (six weeks ago, before the window) and C (no trouble) are not weak keys.
-		expect(mails[0].text).not.toMatch(/^- [AC]:/m);
+		// A was missed, but over three months ago.
+		expect(mails[0].text).not.toMatch(/^- A:/m);
 	});
 
 	it('has a button to today’s drill, both parts and a line of our own', () => {

@@ -1,22 +1,13 @@
 import type { Transaction } from 'sequelize';
-import { addDays, dayBounds } from '../../practice/day';
-import {
-	encouragementFor,
-	estimateMinutes,
-	streakOn,
-	typicalReviewMs,
-	weakestKeys,
-	type KeyTally,
-	type Streak,
-	type WeakKey
-} from '../../practice/digest';
-import { normalizeSettings } from '../../practice/settings';
+import { encouragementFor, type WeakKey } from '../../practice/digest';
+import { keyStrengths, learnerStreak } from '../study/progress';
+import { todayCounts } from '../study/today';
 import { selectRows, toDate, toNumber } from './sql';
 
 /**
- * What one learner's daily reminder says, read from the shared tables: licks due by the end of
- * the practice day, new licks their sources introduce today, timings, streak, weak keys, and
- * what their teachers added since the last reminder.
+ * What one learner's daily reminder says: the drill's own figures for today (its queue's due and
+ * new licks and minutes, the streak, the key strengths), and what their teachers added since the
+ * last reminder that went out.
  */
 
 /** The person a reminder is for, as the scheduler's query finds them. */
@@ -46,7 +37,7 @@ export interface LearnerDigest {
 	/** Whether the minutes come from the learner's own timings rather than a first guess. */
 	timedFromOwn: boolean;
 	news: TeacherNews;
-	streak: Streak;
+	streak: { days: number; practisedToday: boolean };
 	weakKeys: WeakKey[];
 	/** Whether the learner has any review at all (the weak-keys section says nothing without). */
 	hasHistory: boolean;
@@ -61,15 +52,12 @@ export function worthSending(digest: LearnerDigest): boolean {
 	);
 }
 
-/** Days of history the weak keys are read from. */
-const WEAK_KEY_DAYS = 28;
-/** Longest streak looked for (a year and a bit). */
-const STREAK_LOOKBACK_DAYS = 400;
 /** When no reminder was sent before, teacher news from the last week. */
 const FIRST_NEWS_DAYS = 7;
 
 /**
- * Everything a learner's reminder for practice `day` says, as of `now`.
+ * Everything a learner's reminder for practice `day` says, as of `now`. The drill's figures are
+ * read outside `transaction` (they are reads, and SQLite's WAL lets them run beside the claim).
  * @example await gatherLearnerDigest(recipient, '2026-03-02', now) // { reviewsDue: 12, newLicks: 3, … }
  */
 export async function gatherLearnerDigest(
@@ -78,106 +66,27 @@ export async function gatherLearnerDigest(
 	now: Date,
 	transaction?: Transaction
 ): Promise<LearnerDigest> {
-	const { end } = dayBounds(day, who.timezone, who.dayStartHour);
-	const u = { user: who.id };
-
-	const [due] = await selectRows<{ n: unknown }>(
-		'SELECT COUNT(*) AS n FROM cards WHERE user_id = :user AND state > 0 AND due < :end',
-		{ ...u, end },
-		transaction
-	);
-
-	// New cards, per source: the contract's pace (new_per_day per assignment, the learner's own
-	// setting otherwise), at most one card per lick a day, minus what today already introduced.
-	const waiting = await selectRows<{ source: string | null; licks: unknown }>(
-		`SELECT assignment_id AS source, COUNT(DISTINCT lick_id) AS licks FROM cards
-		 WHERE user_id = :user AND state = 0 AND introduced_day IS NULL AND retired_at IS NULL
-		 GROUP BY assignment_id`,
-		u,
-		transaction
-	);
-	const introduced = await selectRows<{ source: string | null; n: unknown }>(
-		`SELECT assignment_id AS source, COUNT(*) AS n FROM cards
-		 WHERE user_id = :user AND introduced_day = :day GROUP BY assignment_id`,
-		{ ...u, day },
-		transaction
-	);
-	const sourceIds = waiting.map((w) => w.source).filter((s): s is string => s !== null);
-	const paces = sourceIds.length
-		? await selectRows<{ id: string; pace: unknown; start: string; finish: string | null }>(
-				`SELECT a.id, a.new_per_day AS pace, a.start_date AS start, a.end_date AS finish
-				 FROM assignments a JOIN classes c ON c.id = a.class_id
-				 WHERE a.id IN (:ids) AND a.paused_at IS NULL AND c.archived_at IS NULL`,
-				{ ids: sourceIds },
-				transaction
-			)
-		: [];
-	const paceOf = new Map<string | null, number>([[null, normalizeSettings(who.settings).newPerDay]]);
-	for (const a of paces) {
-		if (a.start <= day && (a.finish === null || day <= a.finish)) paceOf.set(a.id, toNumber(a.pace));
-	}
-	let newLicks = 0;
-	for (const w of waiting) {
-		const pace = paceOf.get(w.source) ?? 0;
-		const already = toNumber(introduced.find((i) => i.source === w.source)?.n);
-		newLicks += Math.max(0, Math.min(pace - already, toNumber(w.licks)));
-	}
-
-	const timings = await selectRows<{ reveal: unknown; grade: unknown }>(
-		`SELECT reveal_ms AS reveal, grade_ms AS grade FROM reviews
-		 WHERE user_id = :user AND undone_at IS NULL AND reveal_ms IS NOT NULL
-		 ORDER BY reviewed_at DESC LIMIT 60`,
-		u,
-		transaction
-	);
-	const msPerReview = typicalReviewMs(timings.map((t) => toNumber(t.reveal) + toNumber(t.grade)));
-
-	const practised = await selectRows<{ day: string }>(
-		`SELECT DISTINCT day FROM reviews
-		 WHERE user_id = :user AND undone_at IS NULL AND day <= :day AND day > :since`,
-		{ ...u, day, since: addDays(day, -STREAK_LOOKBACK_DAYS) },
-		transaction
-	);
-
-	const tallies = await selectRows<{ key: string; reviews: unknown; misses: unknown; shaky: unknown }>(
-		`SELECT key, COUNT(*) AS reviews,
-		   SUM(CASE WHEN grade = 1 THEN 1 ELSE 0 END) AS misses,
-		   SUM(CASE WHEN grade = 2 THEN 1 ELSE 0 END) AS shaky
-		 FROM reviews WHERE user_id = :user AND undone_at IS NULL AND day > :since AND day <= :day
-		 GROUP BY key`,
-		{ ...u, day, since: addDays(day, -WEAK_KEY_DAYS) },
-		transaction
-	);
-	const [anyReview] = await selectRows<{ n: unknown }>(
-		'SELECT COUNT(*) AS n FROM (SELECT 1 FROM reviews WHERE user_id = :user LIMIT 1) AS any_review',
-		u,
-		transaction
-	);
-
-	const news = await gatherTeacherNews(who.id, now, transaction);
-	const reviewsDue = toNumber(due?.n);
+	const [today, streak, keys, news] = await Promise.all([
+		todayCounts(who.id, now),
+		learnerStreak(who.id, now),
+		keyStrengths(who.id, now),
+		gatherTeacherNews(who.id, now, transaction)
+	]);
+	const weakKeys: WeakKey[] = keys
+		.filter((k) => k.strength !== null && k.strength < 1)
+		.map((k) => ({ key: k.key, reviews: k.reviews, strength: k.strength! }))
+		.sort((a, b) => a.strength - b.strength || b.reviews - a.reviews)
+		.slice(0, 3);
 	return {
 		day,
-		reviewsDue,
-		newLicks,
-		minutes: estimateMinutes({ reviews: reviewsDue, newLicks, msPerReview }),
-		timedFromOwn: msPerReview !== null,
+		reviewsDue: today.due,
+		newLicks: today.new,
+		minutes: today.estimatedMinutes,
+		timedFromOwn: today.timed,
 		news,
-		streak: streakOn(
-			practised.map((p) => p.day),
-			day
-		),
-		weakKeys: weakestKeys(
-			tallies.map(
-				(t): KeyTally => ({
-					key: t.key,
-					reviews: toNumber(t.reviews),
-					misses: toNumber(t.misses),
-					shaky: toNumber(t.shaky)
-				})
-			)
-		),
-		hasHistory: toNumber(anyReview?.n) > 0,
+		streak: { days: streak.current, practisedToday: today.doneToday > 0 },
+		weakKeys,
+		hasHistory: keys.some((k) => k.reviews > 0),
 		encouragement: encouragementFor(who.id, day)
 	};
 }

@@ -13,7 +13,7 @@ import {
 	type LearnerDigest,
 	type MailRecipient
 } from './learner';
-import { changeRows, selectRows, toNumber } from './sql';
+import { changeRows, selectRows, toNumber, writeAlone } from './sql';
 import { gatherTeacherSummary, summaryWorthSending, type TeacherSummary } from './teacher';
 import {
 	ensureMailSecret,
@@ -266,7 +266,7 @@ async function deliver(
 		const message = error instanceof Error ? error.message : String(error);
 		const delay = RETRY_DELAYS_MINUTES[row.attempts - 1];
 		const next = delay === undefined ? null : new Date(now.getTime() + delay * 60_000);
-		await changeRows(
+		await writeAlone(
 			`UPDATE mail_sends SET status = 'failed', last_error = :message,
 			   next_attempt_at = :next, updated_at = :now WHERE id = :id`,
 			{ id: row.id, message: message.slice(0, 1000), next, now }
@@ -277,7 +277,7 @@ async function deliver(
 		);
 		return 'failed';
 	}
-	await changeRows(
+	await writeAlone(
 		`UPDATE mail_sends SET status = 'sent', sent_at = :now, next_attempt_at = NULL,
 		   last_error = NULL, updated_at = :now WHERE id = :id`,
 		{ id: row.id, now }

@@ -40,6 +40,16 @@ export async function changeRows(
 	return Number(changed) || 0;
 }
 
+/**
+ * A single write in a transaction of its own. On SQLite a write outside any transaction waits
+ * for the lock on one of node-sqlite3's few worker threads, where it can starve the transaction
+ * holding the lock; a transaction waits in the process's queue instead (see db/index.ts).
+ * @example await writeAlone('UPDATE mail_sends SET status = :s WHERE id = :id', { s: 'sent', id })
+ */
+export async function writeAlone(sql: string, replacements: Replacements): Promise<number> {
+	return getDb().transaction((transaction) => changeRows(sql, replacements, transaction));
+}
+
 /** A date column as read raw: a Date on PostgreSQL, '2026-03-01 04:00:00.000 +00:00' on SQLite. */
 export function toDate(value: unknown): Date | null {
 	if (value === null || value === undefined) return null;

@@ -93,10 +93,8 @@ export async function gatherTeacherSummary(
 			{ class: group.id, day, ids },
 			transaction
 		);
-		const tallies = await selectRows<{ key: string; reviews: unknown; misses: unknown; shaky: unknown }>(
-			`SELECT r.key, COUNT(*) AS reviews,
-			   SUM(CASE WHEN r.grade = 1 THEN 1 ELSE 0 END) AS misses,
-			   SUM(CASE WHEN r.grade = 2 THEN 1 ELSE 0 END) AS shaky
+		const tallies = await selectRows<{ key: string; reviews: unknown; grade_sum: unknown }>(
+			`SELECT r.key, COUNT(*) AS reviews, SUM(r.grade) AS grade_sum
 			 FROM reviews r JOIN cards c ON c.id = r.card_id
 			 JOIN assignments a ON a.id = c.assignment_id
 			 WHERE a.class_id = :class AND r.undone_at IS NULL AND r.day > :since AND r.day < :day
@@ -162,8 +160,7 @@ export async function gatherTeacherSummary(
 				tallies.map((t) => ({
 					key: t.key,
 					reviews: toNumber(t.reviews),
-					misses: toNumber(t.misses),
-					shaky: toNumber(t.shaky)
+					gradeSum: toNumber(t.grade_sum)
 				}))
 			),
 			waiting: waiting.map((w) => {

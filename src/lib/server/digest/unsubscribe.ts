@@ -3,7 +3,7 @@ import { getConfig } from '../config';
 import { getDb } from '../db/index';
 import { User } from '../db/models/index';
 import { setMailChoice } from './choices';
-import { changeRows } from './sql';
+import { writeAlone } from './sql';
 
 /**
  * Unsubscribe links that work without signing in. A link carries `userId.kind.signature`, the
@@ -30,7 +30,7 @@ export async function ensureMailSecret(userId: string): Promise<string> {
 	const row = await User.findByPk(userId, { attributes: ['id', 'mailSecret'] });
 	if (!row) throw new Error(`No user ${userId} to sign a mail link for`);
 	if (row.mailSecret) return row.mailSecret;
-	await changeRows('UPDATE users SET mail_secret = :secret WHERE id = :id AND mail_secret IS NULL', {
+	await writeAlone('UPDATE users SET mail_secret = :secret WHERE id = :id AND mail_secret IS NULL', {
 		secret: randomBytes(32).toString('base64url'),
 		id: userId
 	});

@@ -1,4 +1,10 @@
-import { formatKey, type Streak, type WeakKey } from '../../../practice/digest';
+import { formatKey, type WeakKey } from '../../../practice/digest';
+
+interface Streak {
+	/** Practice days in a row, ending today or yesterday. */
+	days: number;
+	practisedToday: boolean;
+}
 import { renderMail, type MailBlock, type MailContent } from './layout';
 
 /**
@@ -141,16 +147,20 @@ export function digestMail(input: DigestMailInput): MailContent {
 	);
 	if (input.hasHistory) {
 		blocks.push({ kind: 'heading', text: 'Keys to give extra time' });
+		blocks.push({
+			kind: 'note',
+			text: 'Strength over the last three months: 100 % is every prompt played with ease.'
+		});
 		blocks.push(
 			input.weakKeys.length
 				? {
 						kind: 'list',
 						items: input.weakKeys.map(
 							(k) =>
-								`${formatKey(k.key)}: ${Math.round(k.missRate * 100)} % missed over ${plural(k.reviews, 'prompt')} in the last four weeks`
+								`${formatKey(k.key)}: strength ${Math.round(k.strength * 100)} % over ${plural(k.reviews, 'prompt')}`
 						)
 					}
-				: { kind: 'paragraph', text: 'No key gave you trouble in the last four weeks.' }
+				: { kind: 'paragraph', text: 'No key gave you trouble in the last three months.' }
 		);
 	}
 	blocks.push({ kind: 'paragraph', text: input.encouragement });
@@ -235,7 +245,7 @@ export function summaryMail(input: SummaryMailInput): MailContent {
 			blocks.push({
 				kind: 'paragraph',
 				text: `Weakest keys in the class: ${group.weakKeys
-					.map((k) => `${formatKey(k.key)} (${Math.round(k.missRate * 100)} % missed)`)
+					.map((k) => `${formatKey(k.key)} (strength ${Math.round(k.strength * 100)} %)`)
 					.join(', ')}.`
 			});
 		}

@@ -1,4 +1,4 @@
-import { randomUUID } from 'node:crypto';
+import { randomBytes, randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { getConfig } from '../config';
 import { getDb } from '../db/index';
@@ -194,9 +194,9 @@ async function gather(
 	return summaryWorthSending(content) ? { kind, content } : null;
 }
 
-async function render(who: Candidate, gathered: Gathered): Promise<MailInput> {
+async function render(who: Candidate, gathered: Gathered, secret?: string): Promise<MailInput> {
 	const { baseUrl } = getConfig();
-	const secret = await ensureMailSecret(who.id);
+	secret ??= await ensureMailSecret(who.id);
 	const unsubscribe = unsubscribeLinks(unsubscribeToken(who.id, gathered.kind, secret));
 	const links = {
 		action: gathered.kind === 'digest' ? `${baseUrl}/drill` : `${baseUrl}/teach`,
@@ -215,45 +215,55 @@ async function render(who: Candidate, gathered: Gathered): Promise<MailInput> {
 /** The outcome of claiming one person's mail. */
 type Claim =
 	| { outcome: 'taken' | 'skipped' }
-	| { outcome: 'claimed'; id: string; attempts: number; gathered: Gathered };
+	| { outcome: 'claimed'; id: string; attempts: number; gathered: Gathered; secret: string };
 
-/** Insert the row and decide, in one transaction: whoever inserts it sends it. */
+/**
+ * Claim one person's mail for their day: insert the row (insert-or-ignore on the unique person,
+ * kind and day) and record the decision in it, in one transaction. Only the process whose insert
+ * lands goes on to send; the other finds the row and does nothing. What the mail would say is
+ * read just before (plain reads, which SQLite's WAL runs beside other writers), so that the
+ * transaction, which holds SQLite's single write lock, stays a few statements long.
+ */
 async function claim(kind: MailChoice, who: Candidate, now: Date): Promise<Claim> {
+	const gathered = await gather(kind, who, now);
 	return getDb().transaction(async (transaction): Promise<Claim> => {
 		const id = randomUUID();
 		const inserted = await changeRows(
 			`INSERT INTO mail_sends
 			   (id, user_id, kind, day, status, attempts, next_attempt_at, created_at, updated_at)
-			 VALUES (:id, :user, :kind, :day, 'claimed', 1, :lease, :now, :now)
+			 VALUES (:id, :user, :kind, :day, :status, 1, :lease, :now, :now)
 			 ON CONFLICT (user_id, kind, day) DO NOTHING`,
 			{
 				id,
 				user: who.id,
 				kind,
 				day: who.day,
-				lease: new Date(now.getTime() + CLAIM_LEASE_MS),
+				status: gathered ? 'claimed' : 'skipped',
+				lease: gathered ? new Date(now.getTime() + CLAIM_LEASE_MS) : null,
 				now
 			},
 			transaction
 		);
 		if (inserted === 0) return { outcome: 'taken' };
-		const gathered = await gather(kind, who, now, transaction);
-		if (!gathered) {
-			await changeRows(
-				`UPDATE mail_sends SET status = 'skipped', next_attempt_at = NULL, updated_at = :now
-				 WHERE id = :id`,
-				{ id, now },
-				transaction
-			);
-			return { outcome: 'skipped' };
-		}
-		return { outcome: 'claimed', id, attempts: 1, gathered };
+		if (!gathered) return { outcome: 'skipped' };
+		// The key that signs the unsubscribe link, made here on the first mail to this person.
+		await changeRows(
+			'UPDATE users SET mail_secret = :secret WHERE id = :id AND mail_secret IS NULL',
+			{ id: who.id, secret: randomBytes(32).toString('base64url') },
+			transaction
+		);
+		const [row] = await selectRows<{ secret: string }>(
+			'SELECT mail_secret AS secret FROM users WHERE id = :id',
+			{ id: who.id },
+			transaction
+		);
+		return { outcome: 'claimed', id, attempts: 1, gathered, secret: row.secret };
 	});
 }
 
 /** Send a claimed mail and settle its row: sent, or failed with the time of the next try. */
 async function deliver(
-	row: { id: string; attempts: number },
+	row: { id: string; attempts: number; secret?: string },
 	who: Candidate,
 	gathered: Gathered,
 	now: Date,
@@ -261,7 +271,7 @@ async function deliver(
 	log: (line: string) => void
 ): Promise<'sent' | 'failed'> {
 	try {
-		await mailer.send(await render(who, gathered));
+		await mailer.send(await render(who, gathered, row.secret));
 	} catch (error) {
 		const message = error instanceof Error ? error.message : String(error);
 		const delay = RETRY_DELAYS_MINUTES[row.attempts - 1];

@@ -70,7 +70,9 @@ const user = (id: string, i: number, extra: Record<string, unknown> = {}) => ({
 	updated_at: created,
 	...extra
 });
-await insertRows('users', [user(authorId, -1, { email: 'author@example.com', role: 'teacher', digest_enabled: false })]);
+await insertRows('users', [
+	user(authorId, -1, { email: 'author@example.com', role: 'teacher', digest_enabled: false })
+]);
 const lickIds = Array.from({ length: 10 }, () => randomUUID());
 await insertRows(
 	'licks',

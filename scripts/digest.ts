@@ -7,7 +7,8 @@ import { migrate } from '../src/lib/server/db/migrate';
 import { stopMail } from '../src/lib/server/mail/index';
 import { runScheduledMail } from '../src/lib/server/digest/send';
 
-const usage = 'Usage: npm run digest -- [--now 2026-03-02T08:00:00Z] [--dry-run] [--kind digest|summary]';
+const usage =
+	'Usage: npm run digest -- [--now 2026-03-02T08:00:00Z] [--dry-run] [--kind digest|summary]';
 let values: { now?: string; 'dry-run'?: boolean; kind?: string; help?: boolean };
 try {
 	({ values } = parseArgs({
@@ -28,7 +29,9 @@ if (values.help) {
 }
 const now = values.now ? new Date(values.now) : new Date();
 if (Number.isNaN(now.getTime())) {
-	console.error(`--now ${JSON.stringify(values.now)} is not a date and time; write it as 2026-03-02T08:00:00Z.\n${usage}`);
+	console.error(
+		`--now ${JSON.stringify(values.now)} is not a date and time; write it as 2026-03-02T08:00:00Z.\n${usage}`
+	);
 	process.exit(2);
 }
 if (values.kind && values.kind !== 'digest' && values.kind !== 'summary') {
@@ -41,7 +44,9 @@ await migrate(getDb());
 try {
 	const report = await runScheduledMail({ now, dryRun: values['dry-run'], kinds });
 	for (const mail of report.previews) {
-		console.log(`--- ${mail.kind} to ${mail.to} for ${mail.day}\nSubject: ${mail.subject}\n\n${mail.text}`);
+		console.log(
+			`--- ${mail.kind} to ${mail.to} for ${mail.day}\nSubject: ${mail.subject}\n\n${mail.text}`
+		);
 	}
 	const summary = values['dry-run']
 		? `Dry run at ${now.toISOString()}: ${report.previews.length} mail(s) would go out, ${report.skipped} person(s) have nothing to read.`

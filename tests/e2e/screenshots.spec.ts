@@ -90,7 +90,10 @@ test.describe('the scheduled mails at phone width', () => {
 		fs.rmSync(dataDir, { recursive: true, force: true });
 		const env = { ...process.env, DATA_DIR: dataDir, SMTP_URL: '', DATABASE_URL: '' };
 		for (const args of [['scripts/seed.ts'], ['scripts/digest.ts', '--now', nextMondayEvening()]]) {
-			const run = spawnSync(process.execPath, ['--import', 'tsx', ...args], { env, encoding: 'utf8' });
+			const run = spawnSync(process.execPath, ['--import', 'tsx', ...args], {
+				env,
+				encoding: 'utf8'
+			});
 			expect(run.status, run.stderr).toBe(0);
 		}
 		const outbox = path.join(dataDir, 'outbox');

@@ -29,7 +29,10 @@ export interface WeakKey {
  * @example weakestKeys([{ key: 'Eb', reviews: 4, gradeSum: 8 }, { key: 'C', reviews: 3, gradeSum: 12 }]) // [{ key: 'Eb', reviews: 4, strength: 0.333… }]
  */
 export function weakestKeys(tallies: readonly KeyTally[], count = 3): WeakKey[] {
-	const byClass = new Map<number, { spellings: Map<string, number>; reviews: number; sum: number }>();
+	const byClass = new Map<
+		number,
+		{ spellings: Map<string, number>; reviews: number; sum: number }
+	>();
 	for (const tally of tallies) {
 		const pc = keyPitchClass(tally.key);
 		if (pc === null || tally.reviews <= 0) continue;

@@ -27,14 +27,29 @@ const now = new Date('2026-03-02T08:00:00Z');
 
 beforeAll(async () => {
 	world = await openTestWorld();
-	const teacher = await makeUser({ email: 'rosa@example.com', name: 'Rosa Quill', role: 'teacher', digestHour: 20 });
+	const teacher = await makeUser({
+		email: 'rosa@example.com',
+		name: 'Rosa Quill',
+		role: 'teacher',
+		digestHour: 20
+	});
 	const theo = await makeUser({ email: 'theo@example.com', name: 'Theo Marsh' });
-	const idle = await makeUser({ email: 'idle@example.com', name: 'Nothing Due' });
+	await makeUser({ email: 'idle@example.com', name: 'Nothing Due' });
 	const unverified = await makeUser({ email: 'new@example.com', verified: false });
 	const off = await makeUser({ email: 'off@example.com', digestEnabled: false });
 
 	const licks = [];
-	for (const title of ['Blue turn', 'Side step', 'Octave fall', 'Long fill', 'Third rail', 'Quiet one', 'Up the stairs', 'Back door', 'Last call']) {
+	for (const title of [
+		'Blue turn',
+		'Side step',
+		'Octave fall',
+		'Long fill',
+		'Third rail',
+		'Quiet one',
+		'Up the stairs',
+		'Back door',
+		'Last call'
+	]) {
 		licks.push(await makeLick(teacher.id, title));
 	}
 	// Three reviews due before the practice day ends (05:00 tomorrow is too late for one of them).
@@ -56,7 +71,11 @@ beforeAll(async () => {
 		await makeCard(theo.id, lick.id, { state: 0, quality: '7alt', assignmentId: assignment.id });
 	}
 	// A streak of three days ending yesterday, with trouble in E-flat and F-sharp / G-flat.
-	const reviewed = await makeCard(theo.id, licks[0].id, { state: 2, quality: 'maj7', due: new Date('2026-03-09T00:00:00Z') });
+	const reviewed = await makeCard(theo.id, licks[0].id, {
+		state: 2,
+		quality: 'maj7',
+		due: new Date('2026-03-09T00:00:00Z')
+	});
 	const grades: [string, string, number][] = [
 		['2026-02-27', 'Eb', 1],
 		['2026-02-27', 'Eb', 1],
@@ -68,7 +87,12 @@ beforeAll(async () => {
 		['2025-11-20', 'A', 1]
 	];
 	for (const [day, key, grade] of grades) await makeReview(reviewed, { day, key, grade });
-	await makeComment(reviewed.id, teacher.id, 'Lean on the b9 in bar two;\nlet it ring.', new Date('2026-03-01T12:00:00Z'));
+	await makeComment(
+		reviewed.id,
+		teacher.id,
+		'Lean on the b9 in bar two;\nlet it ring.',
+		new Date('2026-03-01T12:00:00Z')
+	);
 
 	// Due cards for people who must get nothing: unverified, and turned off.
 	await makeCard(unverified.id, licks[0].id, { state: 2, due: new Date('2026-03-01T00:00:00Z') });
@@ -89,7 +113,12 @@ describe('the Daily reminder', () => {
 		const rows = await MailSend.findAll({ include: ['User'], order: [['status', 'ASC']] });
 		// The teacher's hour (20:00) has not come; unverified and turned-off people are not looked at.
 		expect(
-			rows.map((r) => [(r as unknown as { User: { email: string } }).User.email, r.kind, r.day, r.status])
+			rows.map((r) => [
+				(r as unknown as { User: { email: string } }).User.email,
+				r.kind,
+				r.day,
+				r.status
+			])
 		).toEqual([
 			['theo@example.com', 'digest', '2026-03-02', 'sent'],
 			['idle@example.com', 'digest', '2026-03-02', 'skipped']
@@ -107,8 +136,12 @@ describe('the Daily reminder', () => {
 
 	it('says what is new from the teacher since the last reminder', () => {
 		const text = mails[0].text!;
-		expect(text).toContain('- Rosa Quill assigned “Enclosures” in Tuesday combo: 2 new licks a day.');
-		expect(text).toContain('- Rosa Quill on “Blue turn” (maj7): “Lean on the b9 in bar two; let it ring.”');
+		expect(text).toContain(
+			'- Rosa Quill assigned “Enclosures” in Tuesday combo: 2 new licks a day.'
+		);
+		expect(text).toContain(
+			'- Rosa Quill on “Blue turn” (maj7): “Lean on the b9 in bar two; let it ring.”'
+		);
 	});
 
 	it('gives the streak and that today keeps it', () => {
@@ -131,13 +164,18 @@ describe('the Daily reminder', () => {
 		expect(mail.html).toContain('href="http://twelvefold.test/drill"');
 		expect(mail.html).toContain('Start today’s drill');
 		expect(mail.text).toContain('Start today’s drill:\nhttp://twelvefold.test/drill');
-		expect(mail.html).toContain('<meta name="viewport" content="width=device-width, initial-scale=1">');
+		expect(mail.html).toContain(
+			'<meta name="viewport" content="width=device-width, initial-scale=1">'
+		);
 	});
 
 	it('carries List-Unsubscribe for one-click and an unsubscribe link in the footer', () => {
 		const [mail] = mails;
 		const header = (name: string) =>
-			mail.headerLines.find((h) => h.key === name)?.line.replace(/^[^:]+:\s*/, '').replace(/\r?\n\s+/g, '');
+			mail.headerLines
+				.find((h) => h.key === name)
+				?.line.replace(/^[^:]+:\s*/, '')
+				.replace(/\r?\n\s+/g, '');
 		expect(header('list-unsubscribe')).toMatch(
 			/^<http:\/\/twelvefold\.test\/api\/unsubscribe\?token=[0-9a-f-]{36}\.digest\.[A-Za-z0-9_-]{43}>$/
 		);

@@ -40,7 +40,8 @@ describe('the scheduled mails on the demo data', () => {
 			'guitar@example.com',
 			'trumpet@example.com'
 		]);
-		for (const mail of mails) expect(mail.subject).toMatch(/^Today: \d+ licks?, about \d+ minutes?$/);
+		for (const mail of mails)
+			expect(mail.subject).toMatch(/^Today: \d+ licks?, about \d+ minutes?$/);
 
 		const second = await runScheduledMail({ now: new Date('2026-03-05T21:30:00Z'), log: () => {} });
 		expect(second).toMatchObject({ sent: 0, failed: 0 });

@@ -19,18 +19,16 @@ import {
  * them. Every value that matters to a test is passed in; the rest has a plain default.
  */
 
-export async function makeUser(
-	fields: {
-		email: string;
-		name?: string;
-		role?: 'learner' | 'teacher' | 'admin';
-		timezone?: string;
-		digestHour?: number;
-		dayStartHour?: number;
-		verified?: boolean;
-		digestEnabled?: boolean;
-	}
-): Promise<User> {
+export async function makeUser(fields: {
+	email: string;
+	name?: string;
+	role?: 'learner' | 'teacher' | 'admin';
+	timezone?: string;
+	digestHour?: number;
+	dayStartHour?: number;
+	verified?: boolean;
+	digestEnabled?: boolean;
+}): Promise<User> {
 	return User.create({
 		email: fields.email,
 		name: fields.name ?? fields.email.split('@')[0],
@@ -82,7 +80,14 @@ export async function makeCard(
 
 export async function makeReview(
 	card: Card,
-	fields: { day: string; grade?: number; key?: string; at?: Date; revealMs?: number; gradeMs?: number }
+	fields: {
+		day: string;
+		grade?: number;
+		key?: string;
+		at?: Date;
+		revealMs?: number;
+		gradeMs?: number;
+	}
 ): Promise<Review> {
 	return Review.create({
 		cardId: card.id,
@@ -145,7 +150,9 @@ export async function makeComment(
 /** Every mail in the local outbox, parsed by mailparser, oldest first. */
 export async function readOutbox(dataDir: string): Promise<ParsedMail[]> {
 	const dir = path.join(dataDir, 'outbox');
-	const names = (await readdir(dir).catch(() => [] as string[])).filter((n) => n.endsWith('.eml')).sort();
+	const names = (await readdir(dir).catch(() => [] as string[]))
+		.filter((n) => n.endsWith('.eml'))
+		.sort();
 	return Promise.all(names.map(async (n) => simpleParser(await readFile(path.join(dir, n)))));
 }
 

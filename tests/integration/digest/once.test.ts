@@ -42,7 +42,11 @@ function runDigestProcess(env: Record<string, string>): Promise<{ code: number; 
 		const child = spawn(
 			process.execPath,
 			['--import', 'tsx', 'scripts/digest.ts', '--now', now.toISOString()],
-			{ cwd: root, env: { ...process.env, SMTP_URL: '', ...env }, stdio: ['ignore', 'pipe', 'pipe'] }
+			{
+				cwd: root,
+				env: { ...process.env, SMTP_URL: '', ...env },
+				stdio: ['ignore', 'pipe', 'pipe']
+			}
 		);
 		let out = '';
 		child.stdout.on('data', (chunk) => (out += chunk));
@@ -89,19 +93,36 @@ describe('one reminder per person and day, in one process', () => {
 	});
 
 	it('retries a failed send later, with back-off, and then sends it once', async () => {
-		const failing = { send: async () => Promise.reject(new Error('421 try again later')), close() {} };
+		const failing = {
+			send: async () => Promise.reject(new Error('421 try again later')),
+			close() {}
+		};
 		const tomorrow = new Date('2026-03-03T08:00:00Z');
 		const logged: string[] = [];
-		const failed = await runScheduledMail({ now: tomorrow, mailer: failing, log: (l) => logged.push(l) });
+		const failed = await runScheduledMail({
+			now: tomorrow,
+			mailer: failing,
+			log: (l) => logged.push(l)
+		});
 		expect(failed).toMatchObject({ sent: 0, failed: 3 });
-		expect(logged[0]).toMatch(/digest to one-\d@example\.com for 2026-03-03 failed \(attempt 1\): 421 try again later; next try at 2026-03-03T08:02:00\.000Z/);
+		expect(logged[0]).toMatch(
+			/digest to one-\d@example\.com for 2026-03-03 failed \(attempt 1\): 421 try again later; next try at 2026-03-03T08:02:00\.000Z/
+		);
 		// Too early for the retry: nothing happens.
-		expect(await runScheduledMail({ now: new Date(tomorrow.getTime() + 60_000), log: () => {} })).toMatchObject({ sent: 0, retried: 0 });
-		const retried = await runScheduledMail({ now: new Date(tomorrow.getTime() + 2 * 60_000), log: () => {} });
+		expect(
+			await runScheduledMail({ now: new Date(tomorrow.getTime() + 60_000), log: () => {} })
+		).toMatchObject({ sent: 0, retried: 0 });
+		const retried = await runScheduledMail({
+			now: new Date(tomorrow.getTime() + 2 * 60_000),
+			log: () => {}
+		});
 		expect(retried).toMatchObject({ sent: 3, retried: 3, failed: 0 });
 		const rows = await MailSend.findAll({ where: { day: '2026-03-03', status: 'sent' } });
 		expect(rows.map((r) => r.attempts)).toEqual([2, 2, 2]);
-		const again = await runScheduledMail({ now: new Date(tomorrow.getTime() + 60 * 60_000), log: () => {} });
+		const again = await runScheduledMail({
+			now: new Date(tomorrow.getTime() + 60 * 60_000),
+			log: () => {}
+		});
 		expect(again).toMatchObject({ sent: 0, retried: 0 });
 	});
 });

@@ -9,14 +9,7 @@ import { User } from '../../../src/lib/server/db/models/index';
 import { refuseCrossSiteForm } from '../../../src/lib/server/http/cross-site';
 import { POST as oneClick, GET as openOneClick } from '../../../src/routes/api/unsubscribe/+server';
 import { actions, load } from '../../../src/routes/(auth)/unsubscribe/+page.server';
-import {
-	makeCard,
-	makeClass,
-	makeLick,
-	makeUser,
-	readOutbox,
-	recipientsOf
-} from './fixtures';
+import { makeCard, makeClass, makeLick, makeUser, readOutbox, recipientsOf } from './fixtures';
 
 /**
  * Unsubscribing from a scheduled mail, signed out: the footer's link opens a page whose button
@@ -103,7 +96,9 @@ describe('the unsubscribe page', () => {
 		['a cut-off token', 'abc.digest.x'],
 		['another person’s id under a valid signature', 'SWAP']
 	])('refuses %s and changes nothing', async (_title, token) => {
-		const real = footerLink(mailTo(await readOutbox(world.dataDir), 'bo@example.com')).searchParams.get('token')!;
+		const real = footerLink(
+			mailTo(await readOutbox(world.dataDir), 'bo@example.com')
+		).searchParams.get('token')!;
 		const given = token === 'SWAP' ? real.replace(/^[^.]+/, ada.id) : token;
 		const url = new URL(`http://twelvefold.test/unsubscribe?token=${encodeURIComponent(given)}`);
 		expect(await load(pageEvent(url) as never)).toMatchObject({ valid: false });
@@ -123,7 +118,10 @@ describe('one-click unsubscribe (RFC 8058)', () => {
 		const response = await oneClick(oneClickEvent(url, 'List-Unsubscribe=One-Click') as never);
 		expect(response.status).toBe(204);
 		expect(await response.text()).toBe('');
-		expect(await readMailChoices(teacher.id)).toMatchObject({ summaryEnabled: false, digestEnabled: true });
+		expect(await readMailChoices(teacher.id)).toMatchObject({
+			summaryEnabled: false,
+			digestEnabled: true
+		});
 		// The next Monday: no summary.
 		const before = (await readOutbox(world.dataDir)).length;
 		await run(new Date('2026-03-09T08:00:00Z'));
@@ -142,7 +140,12 @@ describe('one-click unsubscribe (RFC 8058)', () => {
 	});
 
 	it.each([
-		['a body other than List-Unsubscribe=One-Click', 'List-Unsubscribe=Yes', 'application/x-www-form-urlencoded', 400],
+		[
+			'a body other than List-Unsubscribe=One-Click',
+			'List-Unsubscribe=Yes',
+			'application/x-www-form-urlencoded',
+			400
+		],
 		['a JSON body', '{"List-Unsubscribe":"One-Click"}', 'application/json', 415],
 		['a bad token', 'List-Unsubscribe=One-Click', 'application/x-www-form-urlencoded', 400]
 	])('refuses %s with a clear error and changes nothing', async (title, body, type, status) => {
@@ -161,7 +164,10 @@ describe('one-click unsubscribe (RFC 8058)', () => {
 			openOneClick({ url } as never);
 			expect.unreachable();
 		} catch (thrown) {
-			expect(thrown).toMatchObject({ status: 303, location: `/unsubscribe?token=${encodeURIComponent(url.searchParams.get('token')!)}` });
+			expect(thrown).toMatchObject({
+				status: 303,
+				location: `/unsubscribe?token=${encodeURIComponent(url.searchParams.get('token')!)}`
+			});
 		}
 	});
 });
@@ -176,12 +182,22 @@ describe('the cross-site form check', () => {
 	it.each([
 		['a form from another site to a page action', '/settings?/practice', 'http://evil.test', 403],
 		['a form with no Origin to a page action', '/settings?/practice', null, 403],
-		['a text/plain post from another site to an endpoint', '/api/auth/sign-out', 'http://evil.test', 403],
+		[
+			'a text/plain post from another site to an endpoint',
+			'/api/auth/sign-out',
+			'http://evil.test',
+			403
+		],
 		['a form from our own origin', '/settings?/practice', 'http://twelvefold.test', null],
 		['JSON from another site (a preflight guards it)', '/api/me', 'http://evil.test', null],
 		['a mail client’s one-click unsubscribe', '/api/unsubscribe?token=t', null, null]
 	])('treats %s as Kit would, with only one-click exempt', (_title, path, origin, status) => {
-		const type = path === '/api/me' ? 'application/json' : path.startsWith('/api/auth') ? 'text/plain' : undefined;
+		const type =
+			path === '/api/me'
+				? 'application/json'
+				: path.startsWith('/api/auth')
+					? 'text/plain'
+					: undefined;
 		const request = post(path, origin, type);
 		const refused = refuseCrossSiteForm(request, new URL(request.url));
 		expect(refused?.status ?? null).toBe(status);

@@ -112,11 +112,16 @@ describe('the reminder’s local day', () => {
 		for (const [instant] of c.runs) {
 			const before = await MailSend.count({ where: { userId: who.id, status: 'sent' } });
 			await runScheduledMail({ now: new Date(instant), kinds: ['digest'], log: () => {} });
-			const rows = await MailSend.findAll({ where: { userId: who.id, status: 'sent' }, order: [['day', 'ASC']] });
+			const rows = await MailSend.findAll({
+				where: { userId: who.id, status: 'sent' },
+				order: [['day', 'ASC']]
+			});
 			seen.push(rows.length > before ? rows[rows.length - 1].day : null);
 		}
 		expect(seen).toEqual(c.runs.map(([, day]) => day));
-		const delivered = (await readOutbox(world.dataDir)).filter((m) => recipientsOf(m).includes(email));
+		const delivered = (await readOutbox(world.dataDir)).filter((m) =>
+			recipientsOf(m).includes(email)
+		);
 		expect(delivered).toHaveLength(c.runs.filter(([, day]) => day).length);
 	});
 });

@@ -46,7 +46,11 @@ describe('weakestKeys', () => {
 	});
 
 	it('gives at most three, breaking ties by the number of prompts', () => {
-		const tallies = ['C', 'D', 'E', 'F', 'G'].map((key, i) => ({ key, reviews: i + 1, gradeSum: i + 1 }));
+		const tallies = ['C', 'D', 'E', 'F', 'G'].map((key, i) => ({
+			key,
+			reviews: i + 1,
+			gradeSum: i + 1
+		}));
 		expect(weakestKeys(tallies).map((k) => k.key)).toEqual(['G', 'F', 'E']);
 	});
 });
@@ -68,7 +72,9 @@ describe('isoWeekday', () => {
 describe('encouragementFor', () => {
 	it('is the same for a person and day, and varies across days', () => {
 		expect(encouragementFor('u1', '2026-03-02')).toBe(encouragementFor('u1', '2026-03-02'));
-		const week = Array.from({ length: 14 }, (_, i) => encouragementFor('u1', `2026-03-${String(i + 1).padStart(2, '0')}`));
+		const week = Array.from({ length: 14 }, (_, i) =>
+			encouragementFor('u1', `2026-03-${String(i + 1).padStart(2, '0')}`)
+		);
 		expect(new Set(week).size).toBeGreaterThan(3);
 		expect(week.every((line) => ENCOURAGEMENTS.includes(line))).toBe(true);
 	});

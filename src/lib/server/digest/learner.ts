@@ -106,8 +106,7 @@ async function gatherTeacherNews(
 		{ user: userId },
 		transaction
 	);
-	const since =
-		toDate(last?.at) ?? new Date(now.getTime() - FIRST_NEWS_DAYS * 24 * 60 * 60 * 1000);
+	const since = toDate(last?.at) ?? new Date(now.getTime() - FIRST_NEWS_DAYS * 24 * 60 * 60 * 1000);
 	const assignments = await selectRows<{
 		class_name: string;
 		deck_name: string;

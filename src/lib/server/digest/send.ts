@@ -120,7 +120,8 @@ function zoneValues(zones: ZoneNow[]): { sql: string; replacements: Record<strin
 }
 
 // The practice day in each zone: before the person's day-start hour it is still yesterday's.
-const PRACTICE_DAY = 'CASE WHEN z.local_hour >= u.day_start_hour THEN z.local_date ELSE z.previous_date END';
+const PRACTICE_DAY =
+	'CASE WHEN z.local_hour >= u.day_start_hour THEN z.local_date ELSE z.previous_date END';
 const PRACTICE_WEEKDAY =
 	'CASE WHEN z.local_hour >= u.day_start_hour THEN z.weekday ELSE z.previous_weekday END';
 
@@ -177,8 +178,7 @@ async function findCandidates(
 }
 
 type Gathered =
-	| { kind: 'digest'; content: LearnerDigest }
-	| { kind: 'summary'; content: TeacherSummary };
+	{ kind: 'digest'; content: LearnerDigest } | { kind: 'summary'; content: TeacherSummary };
 
 async function gather(
 	kind: MailChoice,
@@ -342,7 +342,9 @@ async function retryDue(
 			day: row.day
 		};
 		const seen = toNumber(row.attempts);
-		const stillWanted = Boolean(toNumber(row.kind === 'digest' ? row.digest_enabled : row.summary_enabled));
+		const stillWanted = Boolean(
+			toNumber(row.kind === 'digest' ? row.digest_enabled : row.summary_enabled)
+		);
 		const stillToday = practiceDay(now, who.timezone, who.dayStartHour) === row.day;
 		const taken = await getDb().transaction(async (transaction) => {
 			if (!stillWanted || !stillToday) {
@@ -367,7 +369,13 @@ async function retryDue(
 				`UPDATE mail_sends SET status = 'claimed', attempts = attempts + 1,
 				   next_attempt_at = :lease, updated_at = :now
 				 WHERE id = :id AND attempts = :seen AND status = :was`,
-				{ id: row.row_id, seen, was: row.status, now, lease: new Date(now.getTime() + CLAIM_LEASE_MS) },
+				{
+					id: row.row_id,
+					seen,
+					was: row.status,
+					now,
+					lease: new Date(now.getTime() + CLAIM_LEASE_MS)
+				},
 				transaction
 			);
 			if (won === 0) return null;
@@ -386,7 +394,14 @@ async function retryDue(
 		});
 		if (!taken) return;
 		report.retried++;
-		const outcome = await deliver({ id: row.row_id, attempts: seen + 1 }, who, taken, now, mailer, log);
+		const outcome = await deliver(
+			{ id: row.row_id, attempts: seen + 1 },
+			who,
+			taken,
+			now,
+			mailer,
+			log
+		);
 		report[outcome]++;
 	});
 }
@@ -436,7 +451,13 @@ export async function runScheduledMail(options: RunOptions = {}): Promise<RunRep
 						continue;
 					}
 					const mail = await render(who, gathered);
-					report.previews.push({ kind, to: who.email, day: who.day, subject: mail.subject, text: mail.text });
+					report.previews.push({
+						kind,
+						to: who.email,
+						day: who.day,
+						subject: mail.subject,
+						text: mail.text
+					});
 				}
 				if (batch.length < BATCH) break;
 			}
@@ -462,7 +483,9 @@ export async function runScheduledMail(options: RunOptions = {}): Promise<RunRep
 					try {
 						claimed = await claim(kind, who, now);
 					} catch (error) {
-						log(`[digest] could not claim the ${kind} of ${who.email}: ${(error as Error).message}`);
+						log(
+							`[digest] could not claim the ${kind} of ${who.email}: ${(error as Error).message}`
+						);
 						return;
 					}
 					if (claimed.outcome !== 'claimed') {

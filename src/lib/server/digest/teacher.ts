@@ -62,7 +62,14 @@ export async function gatherTeacherSummary(
 			transaction
 		);
 		if (members.length === 0) {
-			weeks.push({ name: group.name, members: 0, practised: [], behind: [], weakKeys: [], waiting: [] });
+			weeks.push({
+				name: group.name,
+				members: 0,
+				practised: [],
+				behind: [],
+				weakKeys: [],
+				waiting: []
+			});
 			continue;
 		}
 		const ids = members.map((m) => m.id);
@@ -126,7 +133,11 @@ export async function gatherTeacherSummary(
 
 		const nameOf = new Map(members.map((m) => [m.id, m.name]));
 		const practised = activity
-			.map((a) => ({ name: nameOf.get(a.user_id)!, days: toNumber(a.days), reviews: toNumber(a.reviews) }))
+			.map((a) => ({
+				name: nameOf.get(a.user_id)!,
+				days: toNumber(a.days),
+				reviews: toNumber(a.reviews)
+			}))
 			.sort((a, b) => b.days - a.days || b.reviews - a.reviews || a.name.localeCompare(b.name));
 		const active = new Set(activity.map((a) => a.user_id));
 		const behind: ClassWeek['behind'] = [];

@@ -30,10 +30,13 @@ export async function ensureMailSecret(userId: string): Promise<string> {
 	const row = await User.findByPk(userId, { attributes: ['id', 'mailSecret'] });
 	if (!row) throw new Error(`No user ${userId} to sign a mail link for`);
 	if (row.mailSecret) return row.mailSecret;
-	await writeAlone('UPDATE users SET mail_secret = :secret WHERE id = :id AND mail_secret IS NULL', {
-		secret: randomBytes(32).toString('base64url'),
-		id: userId
-	});
+	await writeAlone(
+		'UPDATE users SET mail_secret = :secret WHERE id = :id AND mail_secret IS NULL',
+		{
+			secret: randomBytes(32).toString('base64url'),
+			id: userId
+		}
+	);
 	const stored = await User.findByPk(userId, { attributes: ['id', 'mailSecret'] });
 	return stored!.mailSecret!;
 }
@@ -61,7 +64,10 @@ export interface UnsubscribeLinks {
 export function unsubscribeLinks(token: string): UnsubscribeLinks {
 	const { baseUrl } = getConfig();
 	const query = `token=${encodeURIComponent(token)}`;
-	return { page: `${baseUrl}/unsubscribe?${query}`, oneClick: `${baseUrl}/api/unsubscribe?${query}` };
+	return {
+		page: `${baseUrl}/unsubscribe?${query}`,
+		oneClick: `${baseUrl}/api/unsubscribe?${query}`
+	};
 }
 
 export type ReadTokenResult =
@@ -108,8 +114,7 @@ export async function readUnsubscribeToken(token: unknown): Promise<ReadTokenRes
 }
 
 export type UnsubscribeResult =
-	| { ok: true; kind: MailChoice; changed: boolean; email: string }
-	| { ok: false; message: string };
+	{ ok: true; kind: MailChoice; changed: boolean; email: string } | { ok: false; message: string };
 
 /**
  * Follow an unsubscribe link (or undo one with `enabled: true`): check the token, set the choice.

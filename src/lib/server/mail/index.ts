@@ -121,7 +121,9 @@ export interface BulkMailer {
  * waiting on a slow service never queues a sign-up's verification mail behind it.
  * @example const bulk = await openBulkMailer(); await bulk.send(mail); bulk.close()
  */
-export async function openBulkMailer(options: { maxConnections?: number } = {}): Promise<BulkMailer> {
+export async function openBulkMailer(
+	options: { maxConnections?: number } = {}
+): Promise<BulkMailer> {
 	await startMail();
 	const { status } = running!;
 	const pool = { maxConnections: options.maxConnections ?? 3 };

@@ -10,7 +10,10 @@ export type MailTarget = { mode: 'smtp'; url: string } | { mode: 'local'; port: 
  * A nodemailer transport for the target.
  * @example createMailTransport({ mode: 'local', port: 2525 }) // SMTP to 127.0.0.1:2525, no TLS
  */
-export function createMailTransport(target: MailTarget, options: TransportOptions = {}): Transporter {
+export function createMailTransport(
+	target: MailTarget,
+	options: TransportOptions = {}
+): Transporter {
 	// A pool keeps a few connections open and sends many mails over each: the scheduled mails
 	// use one; a web request's single mail does not need it.
 	const pool = options.pool

@@ -68,7 +68,11 @@ export const actions: Actions = {
 	summary: async ({ request }) => {
 		const user = requireUser();
 		if (user.role !== 'teacher' && user.role !== 'admin') {
-			return fail(403, { form: 'summary', field: null, message: 'The Weekly class summary is for teachers.' });
+			return fail(403, {
+				form: 'summary',
+				field: null,
+				message: 'The Weekly class summary is for teachers.'
+			});
 		}
 		const summaryForm = await superValidate(request, zod4(summaryChoiceSchema));
 		if (!summaryForm.valid) return fail(422, { summaryForm });

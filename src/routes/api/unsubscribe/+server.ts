@@ -22,7 +22,10 @@ export const POST: RequestHandler = async ({ request, url }) => {
 		);
 	}
 	if (Number(request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) {
-		return apiError(413, `A one-click unsubscribe is one field; this body is over ${MAX_BODY_BYTES} bytes.`);
+		return apiError(
+			413,
+			`A one-click unsubscribe is one field; this body is over ${MAX_BODY_BYTES} bytes.`
+		);
 	}
 	let form: FormData;
 	try {

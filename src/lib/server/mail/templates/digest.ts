@@ -139,7 +139,8 @@ export function digestMail(input: DigestMailInput): MailContent {
 				]
 			}
 		);
-		if (total === 0) blocks.push({ kind: 'action', label: 'Open Twelvefold', url: input.links.action });
+		if (total === 0)
+			blocks.push({ kind: 'action', label: 'Open Twelvefold', url: input.links.action });
 	}
 	blocks.push(
 		{ kind: 'heading', text: 'Your streak' },

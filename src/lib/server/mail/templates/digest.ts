@@ -158,7 +158,7 @@ export function digestMail(input: DigestMailInput): MailContent {
 						kind: 'list',
 						items: input.weakKeys.map(
 							(k) =>
-								`${formatKey(k.key)}: strength ${Math.round(k.strength * 100)} % over ${plural(k.reviews, 'prompt')}`
+								`${formatKey(k.key)}: strength ${Math.round(k.strength * 100)}\u00a0% over ${plural(k.reviews, 'prompt')}`
 						)
 					}
 				: { kind: 'paragraph', text: 'No key gave you trouble in the last three months.' }
@@ -246,7 +246,7 @@ export function summaryMail(input: SummaryMailInput): MailContent {
 			blocks.push({
 				kind: 'paragraph',
 				text: `Weakest keys in the class: ${group.weakKeys
-					.map((k) => `${formatKey(k.key)} (strength ${Math.round(k.strength * 100)} %)`)
+					.map((k) => `${formatKey(k.key)} (strength ${Math.round(k.strength * 100)}\u00a0%)`)
 					.join(', ')}.`
 			});
 		}

@@ -151,9 +151,9 @@ describe('the Daily reminder', () => {
 	it('names the three weakest keys by the drill’s key strength, enharmonic spellings together', () => {
 		// Mean grade mapped to 0–1: G♭ and F♯ (1, 2) 17 %, E♭ (1, 1, 3) 22 %, C (3, 4) 83 %.
 		expect(mails[0].text).toContain(
-			'- G♭: strength 17 % over 2 prompts\n' +
-				'- E♭: strength 22 % over 3 prompts\n' +
-				'- C: strength 83 % over 2 prompts\n'
+			'- G♭: strength 17\u00a0% over 2 prompts\n' +
+				'- E♭: strength 22\u00a0% over 3 prompts\n' +
+				'- C: strength 83\u00a0% over 2 prompts\n'
 		);
 		// A was missed, but over three months ago.
 		expect(mails[0].text).not.toMatch(/^- A:/m);

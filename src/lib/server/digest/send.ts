@@ -346,6 +346,8 @@ async function retryDue(
 			toNumber(row.kind === 'digest' ? row.digest_enabled : row.summary_enabled)
 		);
 		const stillToday = practiceDay(now, who.timezone, who.dayStartHour) === row.day;
+		// What the mail would say, read before the transaction as in `claim`.
+		const gathered = stillWanted && stillToday ? await gather(row.kind, who, now) : null;
 		const taken = await getDb().transaction(async (transaction) => {
 			if (!stillWanted || !stillToday) {
 				// Turned off since, or the day it was for is over: a late reminder would mislead.
@@ -365,8 +367,9 @@ async function retryDue(
 				);
 				return null;
 			}
+			// Taken over by compare-and-set on the attempt count, with the decision in the row.
 			const won = await changeRows(
-				`UPDATE mail_sends SET status = 'claimed', attempts = attempts + 1,
+				`UPDATE mail_sends SET status = :status, attempts = attempts + 1,
 				   next_attempt_at = :lease, updated_at = :now
 				 WHERE id = :id AND attempts = :seen AND status = :was`,
 				{
@@ -374,19 +377,13 @@ async function retryDue(
 					seen,
 					was: row.status,
 					now,
-					lease: new Date(now.getTime() + CLAIM_LEASE_MS)
+					status: gathered ? 'claimed' : 'skipped',
+					lease: gathered ? new Date(now.getTime() + CLAIM_LEASE_MS) : null
 				},
 				transaction
 			);
 			if (won === 0) return null;
-			const gathered = await gather(row.kind, who, now, transaction);
 			if (!gathered) {
-				await changeRows(
-					`UPDATE mail_sends SET status = 'skipped', next_attempt_at = NULL, updated_at = :now
-					 WHERE id = :id`,
-					{ id: row.row_id, now },
-					transaction
-				);
 				report.skipped++;
 				return null;
 			}

@@ -21,6 +21,11 @@ export interface Config {
 	authLimitScale: number;
 	/** The session cookie's `Secure` flag: on in production, where the site is served over https. */
 	secureCookies: boolean;
+	/**
+	 * When the scheduled mails (Daily reminder, Weekly class summary) are looked for: a cron
+	 * pattern (croner syntax, seconds optional), or null when `DIGEST_SCHEDULE=off`.
+	 */
+	digestSchedule: string | null;
 }
 
 function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -35,7 +40,9 @@ function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
 		baseUrl: (env.PUBLIC_BASE_URL || env.ORIGIN || `http://localhost:${port}`).replace(/\/$/, ''),
 		production: env.NODE_ENV === 'production',
 		authLimitScale: Number.isFinite(scale) && scale > 0 ? scale : 1,
-		secureCookies: env.NODE_ENV === 'production'
+		secureCookies: env.NODE_ENV === 'production',
+		digestSchedule:
+			env.DIGEST_SCHEDULE === 'off' ? null : env.DIGEST_SCHEDULE || '*/5 * * * *'
 	};
 }
 

@@ -13,8 +13,8 @@ import {
 import { readJsonBody } from '../../../src/lib/server/http/json';
 import { POST as signUpPost } from '../../../src/routes/api/auth/sign-up/+server';
 import { load as signOutLoad } from '../../../src/routes/(auth)/sign-out/+page.server';
-import { fakeEvent, type FakeEventInput } from '../auth/fake-event';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { fakeEvent, type FakeEventInput } from '../support/fake-event';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {

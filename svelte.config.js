@@ -11,7 +11,10 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const template = readFileSync(new URL('./src/app.html', import.meta.url), 'utf8');
 /** @type {`sha256-${string}`[]} */
 const templateScriptHashes = [...template.matchAll(/<script>([\s\S]*?)<\/script>/g)].map(
-	([, body]) => /** @type {`sha256-${string}`} */ (`sha256-${createHash('sha256').update(body).digest('base64')}`)
+	([, body]) =>
+		/** @type {`sha256-${string}`} */ (
+			`sha256-${createHash('sha256').update(body).digest('base64')}`
+		)
 );
 
 /** @type {import('@sveltejs/kit').Config} */

@@ -58,7 +58,9 @@ export function requestedActionName(url: URL): string {
 	return 'default';
 }
 
-const pages = new Set(Object.keys(import.meta.glob('/src/routes/**/+page*.svelte')).map(routeIdOfFile));
+const pages = new Set(
+	Object.keys(import.meta.glob('/src/routes/**/+page*.svelte')).map(routeIdOfFile)
+);
 
 /** True when the route renders a page (`+page.svelte`) and has no endpoint beside it. */
 export function isPageRoute(routeId: string | null): boolean {

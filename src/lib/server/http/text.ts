@@ -79,7 +79,9 @@ function describeNameFault(name: string, path: string): string | null {
  * @example findJsonTextFault({ email: 'a\u0000@b.test' }) // { field: 'email', message: '…' }
  */
 export function findJsonTextFault(body: unknown): TextFault | null {
-	const stack: { value: unknown; path: string; top: string }[] = [{ value: body, path: '', top: '' }];
+	const stack: { value: unknown; path: string; top: string }[] = [
+		{ value: body, path: '', top: '' }
+	];
 	while (stack.length > 0) {
 		const { value, path, top } = stack.pop()!;
 		if (typeof value === 'string') {

@@ -79,3 +79,41 @@ for (const view of [
 		});
 	});
 }
+
+test.describe('the try-it box for a guitarist and a horn player', () => {
+	test('guitar with tablature at desktop size', async ({ page }) => {
+		await page.goto('/');
+		await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+		await page.getByLabel('Start from one of ours').selectOption('upstairs');
+		await page.getByLabel('Instrument').selectOption('guitar');
+		await page.getByLabel('Key', { exact: true }).selectOption('E');
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		await expect(page.locator('.abcjs-tab-number').first()).toBeVisible();
+		await settle(page);
+		await page.locator('#try').screenshot({ path: `${dir}/try-it-guitar.png` });
+	});
+
+	test('guitar with tablature on a phone, wrapped a bar a line', async ({ page }) => {
+		await page.setViewportSize({ width: 390, height: 844 });
+		await page.goto('/');
+		await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+		await page.getByLabel('Start from one of ours').selectOption('upstairs');
+		await page.getByLabel('Instrument').selectOption('guitar');
+		await page.getByLabel('Key', { exact: true }).selectOption('E');
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		await expect(page.locator('.abcjs-tab-number').first()).toBeVisible();
+		await settle(page);
+		await page.getByTestId('try-result').screenshot({ path: `${dir}/try-it-guitar-mobile.png` });
+	});
+
+	test('alto saxophone, written key with the concert key beside it', async ({ page }) => {
+		await page.goto('/');
+		await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+		await page.getByLabel('Instrument').selectOption('alto-sax');
+		await page.getByLabel('Key', { exact: true }).selectOption('Eb');
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
+		await settle(page);
+		await page.locator('#try').screenshot({ path: `${dir}/try-it-alto.png` });
+	});
+});

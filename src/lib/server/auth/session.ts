@@ -1,7 +1,6 @@
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import { Op } from 'sequelize';
 import { getConfig } from '../config';
-import { getDb } from '../db/index';
 import { Session, User } from '../db/models/index';
 import { createToken, hashToken } from './tokens';
 import { toSessionUser, type SessionUser } from './user';
@@ -48,19 +47,16 @@ function toDatabaseUser(row: User): DatabaseUser {
 export function createSessionAdapter(): Adapter {
 	return {
 		async getSessionAndUser(sessionId) {
-			getDb();
 			const row = await Session.findByPk(hashToken(sessionId), { include: [User] });
 			if (!row) return [null, null];
 			const user = (row as Session & { User?: User }).User;
 			return [toDatabaseSession(sessionId, row), user ? toDatabaseUser(user) : null];
 		},
 		async getUserSessions(userId) {
-			getDb();
 			const rows = await Session.findAll({ where: { userId } });
 			return rows.map((row) => toDatabaseSession(row.id, row));
 		},
 		async setSession(session) {
-			getDb();
 			await Session.create({
 				id: hashToken(session.id),
 				userId: session.userId,
@@ -68,19 +64,15 @@ export function createSessionAdapter(): Adapter {
 			});
 		},
 		async updateSessionExpiration(sessionId, expiresAt) {
-			getDb();
 			await Session.update({ expiresAt }, { where: { id: hashToken(sessionId) } });
 		},
 		async deleteSession(sessionId) {
-			getDb();
 			await Session.destroy({ where: { id: hashToken(sessionId) } });
 		},
 		async deleteUserSessions(userId) {
-			getDb();
 			await Session.destroy({ where: { userId } });
 		},
 		async deleteExpiredSessions() {
-			getDb();
 			await Session.destroy({ where: { expiresAt: { [Op.lte]: new Date() } } });
 		}
 	};
@@ -94,7 +86,7 @@ function getLucia() {
 		sessionExpiresIn: new TimeSpan(SESSION_DAYS, 'd'),
 		sessionCookie: {
 			name: SESSION_COOKIE_NAME,
-			attributes: { secure: getConfig().production, sameSite: 'lax' }
+			attributes: { secure: getConfig().secureCookies, sameSite: 'lax' }
 		},
 		getUserAttributes: (attributes) => attributes
 	});
@@ -131,7 +123,6 @@ export async function validateSessionToken(token: string): Promise<ValidatedSess
 
 /** End one session by its stored id (`locals.session.id`). */
 export async function invalidateSession(sessionId: string): Promise<void> {
-	getDb();
 	await Session.destroy({ where: { id: sessionId } });
 }
 
@@ -166,12 +157,11 @@ export async function startSession(cookies: CookieJar, userId: string): Promise<
 }
 
 export function setSessionCookie(cookies: CookieJar, token: string, expiresAt: Date): void {
-	const { attributes } = getLucia().createSessionCookie(token);
 	cookies.set(SESSION_COOKIE_NAME, token, {
 		path: '/',
 		httpOnly: true,
 		sameSite: 'lax',
-		secure: attributes.secure ?? false,
+		secure: getConfig().secureCookies,
 		expires: expiresAt
 	});
 }
@@ -181,6 +171,6 @@ export function deleteSessionCookie(cookies: CookieJar): void {
 		path: '/',
 		httpOnly: true,
 		sameSite: 'lax',
-		secure: getConfig().production
+		secure: getConfig().secureCookies
 	});
 }

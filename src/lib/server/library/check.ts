@@ -20,6 +20,13 @@ export interface CheckAnswer {
 	variants: LickVariant[];
 	/** Device tags found in the line (in its own key and quality). */
 	suggestedTags: string[];
+	/** The line as written: home key, own quality, concert pitch, with degrees and devices. */
+	own: LickVariant;
+	/**
+	 * The computed re-mapping over the asked quality in the home key at concert pitch, ignoring
+	 * any hand-written version (what a hand-written version replaces); null without a quality.
+	 */
+	remapped: LickVariant | null;
 }
 
 /**
@@ -67,9 +74,13 @@ export function checkDraft(body: unknown): CheckAnswer {
 	});
 	if (!grid.ok) throw new LibraryError(422, grid.error.message);
 	const own = lickGrid(input.abc, { keys: [checked.homeKey] });
+	if (!own.ok) throw new LibraryError(422, own.error.message);
+	const remapped = over ? lickGrid(input.abc, { keys: [checked.homeKey], quality: over }) : null;
 	return {
 		home: { key: checked.homeKey, quality: checked.homeQuality },
 		variants: grid.variants,
-		suggestedTags: own.ok ? suggestTags(own.variants[0]) : []
+		suggestedTags: suggestTags(own.variants[0]),
+		own: own.variants[0],
+		remapped: remapped?.ok ? remapped.variants[0] : null
 	};
 }

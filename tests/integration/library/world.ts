@@ -9,7 +9,7 @@ import {
 } from '../../../src/lib/server/db/models/index';
 import { LocalFolderStore } from '../../../src/lib/server/storage/local';
 import { setBlobStore } from '../../../src/lib/server/storage/index';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 /**
  * A library world: a teacher with a class, a learner in it, a stranger, each a session user the

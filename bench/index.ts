@@ -14,6 +14,7 @@ import { Interval, Note } from 'tonal';
 import { computeGrid, prepareLick, renderVariant } from '../src/lib/music/engine';
 import { MAJOR_KEY_SPELLINGS } from '../src/lib/music/key-data';
 import type { QualityId } from '../src/lib/music/types';
+import { benchLibrary } from './library';
 
 const LICK = readFileSync(
 	fileURLToPath(new URL('../tests/fixtures/licks/bench-four-bars.abc', import.meta.url)),
@@ -122,3 +123,6 @@ const lines = [
 ];
 console.log(lines.join('\n'));
 if (sink === 0) console.log('(nothing computed)');
+
+console.log('');
+console.log((await benchLibrary()).join('\n'));

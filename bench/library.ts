@@ -22,7 +22,10 @@ const LICKS = 5000;
 const TUNES = 200;
 
 /** Median and fastest milliseconds of `runs` awaited calls after two warm-ups. */
-async function time(fn: () => Promise<unknown>, runs = 15): Promise<{ median: number; fastest: number }> {
+async function time(
+	fn: () => Promise<unknown>,
+	runs = 15
+): Promise<{ median: number; fastest: number }> {
 	await fn();
 	await fn();
 	const times: number[] = [];
@@ -42,7 +45,12 @@ export async function benchLibrary(): Promise<string[]> {
 	const db = openDb(`sqlite:${path.join(dir, 'bench.sqlite')}`);
 	try {
 		await migrate(db);
-		const author = await User.create({ email: 'bench@example.test', name: 'Bench', role: 'teacher', passwordHash: 'x' });
+		const author = await User.create({
+			email: 'bench@example.test',
+			name: 'Bench',
+			role: 'teacher',
+			passwordHash: 'x'
+		});
 		const actor = { id: author.id, role: 'teacher' as const };
 		// 5,000 licks from the demo lines, with their tags, written in bulk (storage, not the subject).
 		const qualities = ['7', 'm7', 'maj7', 'm7b5', '7alt'];
@@ -64,15 +72,20 @@ export async function benchLibrary(): Promise<string[]> {
 		for (let i = 0; i < rows.length; i += 500) {
 			const made = await Lick.bulkCreate(rows.slice(i, i + 500));
 			await LickTag.bulkCreate(
-				made.flatMap((l, j) => DEMO_LICKS[(i + j) % DEMO_LICKS.length].devices.map((tag) => ({ lickId: l.id, tag })))
+				made.flatMap((l, j) =>
+					DEMO_LICKS[(i + j) % DEMO_LICKS.length].devices.map((tag) => ({ lickId: l.id, tag }))
+				)
 			);
 		}
 
 		const floor = await time(() =>
-			db.query('SELECT id, title FROM licks WHERE author_id = :a ORDER BY updated_at DESC LIMIT 25', {
-				replacements: { a: author.id },
-				type: QueryTypes.SELECT
-			})
+			db.query(
+				'SELECT id, title FROM licks WHERE author_id = :a ORDER BY updated_at DESC LIMIT 25',
+				{
+					replacements: { a: author.id },
+					type: QueryTypes.SELECT
+				}
+			)
 		);
 		const first = await time(() => listLicks(actor, { limit: 25 }));
 		const deep = await time(() => listLicks(actor, { limit: 25, offset: 4000 }));
@@ -82,7 +95,9 @@ export async function benchLibrary(): Promise<string[]> {
 
 		// A 200-tune file: the demo lines, numbered.
 		const file = Array.from({ length: TUNES }, (_, i) =>
-			DEMO_LICKS[i % DEMO_LICKS.length].abc.replace(/^X:1$/m, `X:${i + 1}`).replace(/^T:(.*)$/m, `T:$1 ${i + 1}`)
+			DEMO_LICKS[i % DEMO_LICKS.length].abc
+				.replace(/^X:1$/m, `X:${i + 1}`)
+				.replace(/^T:(.*)$/m, `T:$1 ${i + 1}`)
 		).join('\n\n');
 		const parse = await time(async () => {
 			for (const t of splitTunes(file)) prepareLick(t.text);
@@ -90,7 +105,12 @@ export async function benchLibrary(): Promise<string[]> {
 		let n = 0;
 		const importing = await time(async () => {
 			n += 1;
-			const someone = await User.create({ email: `i${n}@example.test`, name: 'I', role: 'teacher', passwordHash: 'x' });
+			const someone = await User.create({
+				email: `i${n}@example.test`,
+				name: 'I',
+				role: 'teacher',
+				passwordHash: 'x'
+			});
 			const result = await importAbcFile({ id: someone.id, role: 'teacher' }, file);
 			if (result.created.length !== TUNES) throw new Error(`import made ${result.created.length}`);
 		}, 3);

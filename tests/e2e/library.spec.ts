@@ -12,6 +12,17 @@ test.describe.configure({ mode: 'serial' });
 
 const shots = process.env.SCREENSHOTS ? 'docs/screenshots' : null;
 
+/** A README picture at desktop size, then at phone size (`-mobile`), back to desktop after. */
+async function shoot(page: Page, name: string, fullPage = false) {
+	if (!shots) return;
+	await page.evaluate(() => document.fonts.ready);
+	await page.screenshot({ path: `${shots}/${name}.png`, fullPage });
+	await page.setViewportSize({ width: 390, height: 844 });
+	await page.waitForTimeout(600);
+	await page.screenshot({ path: `${shots}/${name}-mobile.png`, fullPage });
+	await page.setViewportSize({ width: 1280, height: 800 });
+}
+
 async function signInAsDemoTeacher(page: Page) {
 	const res = await page.request.post('/api/auth/sign-in', {
 		data: { email: 'teacher@example.com', password: 'demo-password-12' }
@@ -35,7 +46,8 @@ function tinyWav(): Buffer {
 	buf.writeUInt16LE(8, 34);
 	buf.write('data', 36);
 	buf.writeUInt32LE(samples, 40);
-	for (let i = 0; i < samples; i++) buf[44 + i] = 128 + Math.round(20 * Math.sin((2 * Math.PI * 440 * i) / 8000));
+	for (let i = 0; i < samples; i++)
+		buf[44 + i] = 128 + Math.round(20 * Math.sin((2 * Math.PI * 440 * i) / 8000));
 	return buf;
 }
 
@@ -52,26 +64,31 @@ test.beforeAll(() => {
 	});
 });
 
-test('the demo teacher’s library shows the demo licks, and a lick written in the editor is checked in place and saved', async ({ page }) => {
+test('the demo teacher’s library shows the demo licks, and a lick written in the editor is checked in place and saved', async ({
+	page
+}) => {
 	await signInAsDemoTeacher(page);
 	await page.goto('/library');
 	const table = page.getByTestId('library-table');
 	for (const title of ['Blue turn', 'Porch light', 'Night bus']) {
 		await expect(table.getByRole('link', { name: title })).toBeVisible();
 	}
-	if (shots) await page.screenshot({ path: `${shots}/library.png` });
-	await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Library' }).waitFor();
+	await shoot(page, 'library');
+	await page
+		.getByRole('navigation', { name: 'Main' })
+		.getByRole('link', { name: 'Library' })
+		.waitFor();
 
 	await page.getByRole('link', { name: 'Write a lick' }).click();
 	await expect(page).toHaveURL(/\/library\/new$/);
 	await page.getByLabel('Title').fill('Evening walk');
 	const text = page.getByLabel('The lick in abc notation, at concert pitch');
 	// A voice overlay (&) is refused by the engine: line 7 of the text, at the ampersand.
-	await text.fill(abc('Evening walk', '"F7" f a c\' & e\' d\' c\' a | f4 z4 |]'));
+	await text.fill(abc('Evening walk', "\"F7\" f a c' & e' d' c' a | f4 z4 |]"));
 	const error = page.getByTestId('abc-error');
 	await expect(error).toContainText('Line 7, column 13');
 	await expect(page.getByTestId('abc-error-mark')).toHaveText('&');
-	await text.fill(abc('Evening walk', '"F7" f a c\' _e\' d\' c\' a g | f4 z4 |]'));
+	await text.fill(abc('Evening walk', "\"F7\" f a c' _e' d' c' a g | f4 z4 |]"));
 	await expect(error).toBeHidden();
 	await expect(page.getByTestId('notation').first().locator('svg')).toBeVisible();
 	await expect(page.getByTestId('key-grid').locator('li')).toHaveCount(12);
@@ -87,17 +104,22 @@ test('the demo teacher’s library shows the demo licks, and a lick written in t
 	await expect(page.getByText('Unsaved changes restored')).toBeVisible();
 	await expect(page.getByLabel('Title')).toHaveValue('Evening walk, slower');
 	page.once('dialog', (d) => void d.dismiss());
-	await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Library' }).click();
+	await page
+		.getByRole('navigation', { name: 'Main' })
+		.getByRole('link', { name: 'Library' })
+		.click();
 	await expect(page).toHaveURL(lickUrl);
 	await page.getByRole('button', { name: 'Discard them' }).click();
 	await expect(page.getByLabel('Title')).toHaveValue('Evening walk');
-	if (shots) await page.screenshot({ path: `${shots}/lick-editor.png`, fullPage: false });
+	await shoot(page, 'lick-editor');
 });
 
 test('a reference recording uploads and plays', async ({ page }) => {
 	await signInAsDemoTeacher(page);
 	await page.goto(lickUrl);
-	await page.getByTestId('recording-input').setInputFiles({ name: 'take.wav', mimeType: 'audio/wav', buffer: tinyWav() });
+	await page
+		.getByTestId('recording-input')
+		.setInputFiles({ name: 'take.wav', mimeType: 'audio/wav', buffer: tinyWav() });
 	const audio = page.getByTestId('recording-audio');
 	await expect(audio).toBeVisible();
 	const played = await audio.evaluate(async (el: HTMLAudioElement) => {
@@ -120,7 +142,7 @@ test('the twelve-key sheet prints as a PDF on A4 and US Letter', async ({ page }
 	await expect(page).toHaveURL(/instrument=trumpet/);
 	await expect(page.getByTestId('print-grid').locator('svg')).toHaveCount(12);
 	await expect(page.getByText('written for B-flat trumpet', { exact: false })).toBeVisible();
-	if (shots) await page.screenshot({ path: `${shots}/print-sheet.png`, fullPage: true });
+	await shoot(page, 'print-sheet', true);
 	await page.emulateMedia({ media: 'print' });
 	await expect(page.getByRole('button', { name: 'Print' })).toBeHidden();
 	await expect(page.getByRole('navigation', { name: 'Main' })).toBeHidden();
@@ -132,7 +154,9 @@ test('the twelve-key sheet prints as a PDF on A4 and US Letter', async ({ page }
 	}
 });
 
-test('importing a file of three tunes makes two licks and reports the broken one', async ({ page }) => {
+test('importing a file of three tunes makes two licks and reports the broken one', async ({
+	page
+}) => {
 	await signInAsDemoTeacher(page);
 	await page.goto('/library/import');
 	const file = [
@@ -142,7 +166,9 @@ test('importing a file of three tunes makes two licks and reports the broken one
 		'',
 		abc('Imported three', '"Fm7" f2 _a2 c\'2 _e\'2 |]').replace('X:1', 'X:3')
 	].join('\n');
-	await page.getByLabel('The .abc file').setInputFiles({ name: 'three.abc', mimeType: 'text/plain', buffer: Buffer.from(file) });
+	await page
+		.getByLabel('The .abc file')
+		.setInputFiles({ name: 'three.abc', mimeType: 'text/plain', buffer: Buffer.from(file) });
 	await page.getByRole('button', { name: 'Import' }).click();
 	const result = page.getByTestId('import-result');
 	await expect(result).toContainText('2 licks made, 1 tune left out');
@@ -151,7 +177,7 @@ test('importing a file of three tunes makes two licks and reports the broken one
 	await expect(failed).toContainText('X:2');
 	await expect(failed).toContainText('Imported broken');
 	await expect(failed).toContainText('line 12, column 10');
-	if (shots) await page.screenshot({ path: `${shots}/import-result.png`, fullPage: true });
+	await shoot(page, 'import-result', true);
 });
 
 test('a deck is built and reordered with the keyboard', async ({ page }) => {
@@ -171,14 +197,21 @@ test('a deck is built and reordered with the keyboard', async ({ page }) => {
 	expect(await titles()).toEqual(['Evening walk', 'Imported one', 'Imported three']);
 	await page.getByRole('button', { name: /Move “Imported three”, position 3/ }).focus();
 	await page.keyboard.press('ArrowUp');
-	await expect(page.getByTestId('deck-announce')).toHaveText('Moved “Imported three” to position 2 of 3.');
+	await expect(page.getByTestId('deck-announce')).toHaveText(
+		'Moved “Imported three” to position 2 of 3.'
+	);
 	await page.keyboard.press('Home');
-	await expect(page.getByTestId('deck-announce')).toHaveText('Moved “Imported three” to position 1 of 3.');
+	await expect(page.getByTestId('deck-announce')).toHaveText(
+		'Moved “Imported three” to position 1 of 3.'
+	);
 	await page.reload();
 	await expect.poll(titles).toEqual(['Imported three', 'Evening walk', 'Imported one']);
 });
 
-test('a public lick’s share link opens for a visitor, who can hear it in another key', async ({ page, browser }) => {
+test('a public lick’s share link opens for a visitor, who can hear it in another key', async ({
+	page,
+	browser
+}) => {
 	await signInAsDemoTeacher(page);
 	await page.goto(lickUrl);
 	await page.getByLabel('Who sees it').selectOption('public');

@@ -16,6 +16,14 @@ export const importSchema = z.object({
 
 /** A deck's name and description (create and rename). */
 export const deckSchema = z.object({
-	name: z.string().trim().min(1, 'Give the deck a name.').max(120, 'A deck name has at most 120 characters.'),
-	description: z.string().trim().max(2000, 'A description has at most 2,000 characters.').default('')
+	name: z
+		.string()
+		.trim()
+		.min(1, 'Give the deck a name.')
+		.max(120, 'A deck name has at most 120 characters.'),
+	description: z
+		.string()
+		.trim()
+		.max(2000, 'A description has at most 2,000 characters.')
+		.default('')
 });

@@ -10,7 +10,8 @@ import {
 
 describe('splitTunes', () => {
 	it('splits a file at X: lines and ends a tune at an empty line (abc 2.1 §2.2)', () => {
-		const file = 'free text before\n\nX:1\nT:One\nK:C\nc\n\nignored text\nX:7\nK:G\n% a comment line\nG';
+		const file =
+			'free text before\n\nX:1\nT:One\nK:C\nc\n\nignored text\nX:7\nK:G\n% a comment line\nG';
 		expect(splitTunes(file)).toEqual([
 			{ text: 'X:1\nT:One\nK:C\nc', line: 3, number: 1 },
 			{ text: 'X:7\nK:G\n% a comment line\nG', line: 9, number: 7 }
@@ -62,7 +63,13 @@ describe('header fields', () => {
 describe('export meta', () => {
 	it('writes a lick and its versions as tunes that read back to the same fields', () => {
 		const { text, next } = writeTunes(
-			{ title: 'Up', abc: 'X:1\nT:old\nK:C\n"C7"c', tags: ['arpeggio', 'blues'], feel: 1.5, note: 'Line one.\n\n- two' },
+			{
+				title: 'Up',
+				abc: 'X:1\nT:old\nK:C\n"C7"c',
+				tags: ['arpeggio', 'blues'],
+				feel: 1.5,
+				note: 'Line one.\n\n- two'
+			},
 			{ m7: 'X:1\nK:C\n"Cm7"c' },
 			4
 		);
@@ -71,7 +78,12 @@ describe('export meta', () => {
 		expect(tunes.map((t) => t.number)).toEqual([4, 5]);
 		const main = readTuneMeta(tunes[0].text);
 		expect(main.abc).toBe('X:1\nT:Up\nK:C\n"C7"c');
-		expect(main.meta).toEqual({ tags: ['arpeggio', 'blues'], feel: 1.5, note: 'Line one.\n\n- two', versionOf: null });
+		expect(main.meta).toEqual({
+			tags: ['arpeggio', 'blues'],
+			feel: 1.5,
+			note: 'Line one.\n\n- two',
+			versionOf: null
+		});
 		const version = readTuneMeta(tunes[1].text);
 		expect(version.abc).toBe('X:1\nK:C\n"Cm7"c');
 		expect(version.meta.versionOf).toEqual({ tune: 4, quality: 'm7' });

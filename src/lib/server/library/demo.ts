@@ -12,7 +12,12 @@ export async function addDemoLicks(actor: Actor): Promise<number> {
 	let made = 0;
 	for (const demo of DEMO_LICKS) {
 		if (await Lick.count({ where: { authorId: actor.id, title: demo.title } })) continue;
-		await createLick(actor, { title: demo.title, abc: demo.abc, note: demo.note, tags: demo.devices });
+		await createLick(actor, {
+			title: demo.title,
+			abc: demo.abc,
+			note: demo.note,
+			tags: demo.devices
+		});
 		made += 1;
 	}
 	return made;

@@ -9,7 +9,11 @@ export const load: PageServerLoad = async ({ params }) => {
 	const user = requireUser();
 	try {
 		const lick = await getLick(user, params.id);
-		return { lick, noteHtml: renderNote(lick.note), instrument: user.settings.instrument ?? 'concert' };
+		return {
+			lick,
+			noteHtml: renderNote(lick.note),
+			instrument: user.settings.instrument ?? 'concert'
+		};
 	} catch (e) {
 		if (e instanceof LibraryError) error(e.status, e.message);
 		throw e;

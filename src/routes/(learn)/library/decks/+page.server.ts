@@ -17,7 +17,10 @@ export const actions: Actions = {
 		const user = requireUser();
 		const form = await superValidate(request, zod4(deckSchema));
 		if (!form.valid) return fail(422, { form });
-		const deck = await createDeck(user, { name: form.data.name, description: form.data.description });
+		const deck = await createDeck(user, {
+			name: form.data.name,
+			description: form.data.description
+		});
 		redirect(303, `/library/decks/${deck.id}`);
 	}
 };

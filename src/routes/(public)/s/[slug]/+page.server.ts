@@ -7,7 +7,8 @@ import type { Actions, PageServerLoad } from './$types';
 /** A public lick's page: anyone may see and hear it; a signed-in person may copy it. */
 export const load: PageServerLoad = async ({ params, locals }) => {
 	const lick = await findSharedLick(params.slug);
-	if (!lick) error(404, 'This share link leads nowhere: the lick was deleted or is no longer public.');
+	if (!lick)
+		error(404, 'This share link leads nowhere: the lick was deleted or is no longer public.');
 	return {
 		lick: {
 			title: lick.title,

@@ -9,7 +9,8 @@ import type { PageServerLoad } from './$types';
 export const load: PageServerLoad = async ({ params, url }) => {
 	const user = requireUser();
 	const asked = url.searchParams.get('instrument');
-	const instrument = asked && isInstrumentId(asked) ? asked : (user.settings.instrument ?? 'concert');
+	const instrument =
+		asked && isInstrumentId(asked) ? asked : (user.settings.instrument ?? 'concert');
 	const q = url.searchParams.get('quality');
 	const paper = url.searchParams.get('paper') === 'letter' ? 'letter' : 'a4';
 	try {
@@ -17,7 +18,13 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		const quality = q && isQualityId(q) ? q : lick.homeQuality;
 		const { variants } = await lickVariants(user, lick, { instrument, quality });
 		return {
-			lick: { id: lick.id, title: lick.title, tempo: lick.tempo, feel: lick.feel, homeQuality: lick.homeQuality },
+			lick: {
+				id: lick.id,
+				title: lick.title,
+				tempo: lick.tempo,
+				feel: lick.feel,
+				homeQuality: lick.homeQuality
+			},
 			instrument,
 			quality,
 			paper,

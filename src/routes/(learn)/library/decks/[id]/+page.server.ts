@@ -29,7 +29,9 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	return {
 		deck,
 		find,
-		candidates: candidates.items.filter((l) => !inDeck.has(l.id)).map((l) => ({ id: l.id, title: l.title, author: l.mine ? null : l.author.name })),
+		candidates: candidates.items
+			.filter((l) => !inDeck.has(l.id))
+			.map((l) => ({ id: l.id, title: l.title, author: l.mine ? null : l.author.name })),
 		form: await superValidate({ name: deck.name, description: deck.description }, zod4(deckSchema))
 	};
 };
@@ -47,7 +49,8 @@ export const actions: Actions = {
 		try {
 			await deleteDeck(user, params.id);
 		} catch (e) {
-			if (e instanceof LibraryError && e.status === 409) return fail(409, { deleteError: e.message });
+			if (e instanceof LibraryError && e.status === 409)
+				return fail(409, { deleteError: e.message });
 			if (e instanceof LibraryError) error(e.status, e.message);
 			throw e;
 		}

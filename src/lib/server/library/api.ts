@@ -6,7 +6,7 @@ import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from '..
 import type { SessionUser } from '../auth/session';
 import { apiError } from '../http/json';
 import type { Actor } from './access';
-import { LibraryError } from './errors';
+import { answerOf, LibraryError } from './errors';
 import {
 	LICK_SCOPES,
 	LICK_SORTS,
@@ -104,7 +104,7 @@ export async function withActor(
 	try {
 		return await body(actor);
 	} catch (e) {
-		if (e instanceof LibraryError) return apiError(e.status, e.message, e.details);
+		if (e instanceof LibraryError) return answerOf(e);
 		throw e;
 	}
 }

@@ -32,7 +32,7 @@ export interface CheckAnswer {
 /**
  * @example checkDraft({ abc: 'X:1\nK:C\n"C7"CEGB|' }) // { home: { key: 'C', quality: '7' }, … }
  */
-export function checkDraft(body: unknown): CheckAnswer {
+export async function checkDraft(body: unknown): Promise<CheckAnswer> {
 	if (!body || typeof body !== 'object' || Array.isArray(body)) {
 		throw new LibraryError(400, 'The body must be a JSON object such as {"abc": "X:1\\nK:C\\n…"}.');
 	}
@@ -67,20 +67,20 @@ export function checkDraft(body: unknown): CheckAnswer {
 	const checked = checkLickAbc(input.abc, input.versions ?? {});
 	// Without a chord the line can still be moved to every key, just not to another quality.
 	const over = checked.homeQuality && quality ? (quality as QualityId) : undefined;
-	const grid = lickGrid(input.abc, {
+	const variants = await lickGrid(input.abc, {
 		quality: over,
 		instrument: (instrument as string) || undefined,
 		versions: input.versions
 	});
-	if (!grid.ok) throw new LibraryError(422, grid.error.message);
-	const own = lickGrid(input.abc, { keys: [checked.homeKey] });
-	if (!own.ok) throw new LibraryError(422, own.error.message);
-	const remapped = over ? lickGrid(input.abc, { keys: [checked.homeKey], quality: over }) : null;
+	const [own] = await lickGrid(input.abc, { keys: [checked.homeKey] });
+	const remapped = over
+		? (await lickGrid(input.abc, { keys: [checked.homeKey], quality: over }))[0]
+		: null;
 	return {
 		home: { key: checked.homeKey, quality: checked.homeQuality },
-		variants: grid.variants,
-		suggestedTags: suggestTags(own.variants[0]),
-		own: own.variants[0],
-		remapped: remapped?.ok ? remapped.variants[0] : null
+		variants,
+		suggestedTags: suggestTags(own),
+		own,
+		remapped
 	};
 }

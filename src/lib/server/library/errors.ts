@@ -7,7 +7,7 @@ import { apiError, type ApiErrorDetails } from '../http/json';
  */
 export class LibraryError extends Error {
 	constructor(
-		readonly status: 400 | 403 | 404 | 409 | 413 | 415 | 416 | 422,
+		readonly status: 400 | 403 | 404 | 409 | 413 | 415 | 416 | 422 | 503,
 		message: string,
 		readonly details: ApiErrorDetails = {}
 	) {
@@ -25,6 +25,12 @@ export const deckNotFound = () => new LibraryError(404, 'No such deck.');
  * @example libraryErrorResponse(new LibraryError(404, 'No such lick.')) // 404 response
  */
 export function libraryErrorResponse(e: unknown): Response {
-	if (e instanceof LibraryError) return apiError(e.status, e.message, e.details);
+	if (e instanceof LibraryError) return answerOf(e);
 	throw e;
+}
+
+/** The answer for a refusal; a busy engine (503) says when to come back. */
+export function answerOf(e: LibraryError): Response {
+	const wait = e.details.retryAfterSeconds;
+	return apiError(e.status, e.message, e.details, wait ? { 'Retry-After': String(wait) } : undefined);
 }

@@ -1,28 +1,18 @@
-import {
-	CYCLE_OF_FOURTHS,
-	prepareLick,
-	renderVariant,
-	VariantRequestError,
-	type HandWrittenVersions,
-	type QualityId,
-	type VariantSuccess
-} from '../../music/index';
+import type { HandWrittenVersions, QualityId } from '../../music/index';
+import { renderLickGrid, type VariantAnswer } from '../music/render';
+import { LibraryError } from './errors';
 
 /** A variant as the API sends it: the engine's result without its `ok` flag. */
-export type LickVariant = Omit<VariantSuccess, 'ok'>;
-
-export type GridAnswer =
-	| { ok: true; variants: LickVariant[] }
-	| { ok: false; error: { message: string; line?: number; column?: number; version?: string } };
+export type LickVariant = VariantAnswer;
 
 /**
- * A lick in the given keys (all twelve, round the cycle of fourths, when none is named) over one
- * quality for one instrument, with degrees and devices, from one parse. The one place the
- * library asks the engine for many variants at once: when the engine's bounded grid lands, only
- * this body changes.
- * @example lickGrid('X:1\nK:C\n"C7"CEG', { instrument: 'trumpet' }).variants.length // 12
+ * A lick in the given keys (all twelve round the cycle of fourths when none is named) over one
+ * quality (its own when none) for one instrument, with degrees and devices, through the engine's
+ * bounded grid; a refusal (invalid abc with its place, too large an answer, a busy engine)
+ * is thrown as a `LibraryError` with the engine's status and sentence.
+ * @example (await lickGrid('X:1\nK:C\n"C7"CEG', { instrument: 'trumpet' })).length // 12
  */
-export function lickGrid(
+export async function lickGrid(
 	abc: string,
 	options: {
 		keys?: readonly string[];
@@ -30,23 +20,23 @@ export function lickGrid(
 		instrument?: string;
 		versions?: HandWrittenVersions;
 	} = {}
-): GridAnswer {
-	const prepared = prepareLick(abc, options.versions ?? {});
-	if (!prepared.ok) return prepared;
-	const variants: LickVariant[] = [];
-	try {
-		for (const to of options.keys ?? CYCLE_OF_FOURTHS) {
-			const { ok: _ok, ...variant } = renderVariant(prepared.lick, {
-				to,
-				quality: options.quality,
-				instrument: options.instrument,
-				analyse: true
-			});
-			variants.push(variant);
+): Promise<LickVariant[]> {
+	const outcome = await renderLickGrid(
+		{ abc, versions: options.versions ?? {} },
+		{
+			keys: options.keys,
+			qualities: options.quality ? [options.quality] : undefined,
+			instrument: options.instrument
 		}
-	} catch (e) {
-		if (e instanceof VariantRequestError) return { ok: false, error: { message: e.message } };
-		throw e;
+	);
+	if (!outcome.ok) {
+		const { status, message, line, column, version, retryAfterSeconds } = outcome;
+		throw new LibraryError(status, message, {
+			...(line !== undefined ? { line } : {}),
+			...(column !== undefined ? { column } : {}),
+			...(version ? { version } : {}),
+			...(retryAfterSeconds !== undefined ? { retryAfterSeconds } : {})
+		});
 	}
-	return { ok: true, variants };
+	return outcome.value.variants;
 }

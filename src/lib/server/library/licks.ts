@@ -735,14 +735,13 @@ export async function lickVariants(
 			'instrument'
 		);
 	}
-	const grid = lickGrid(lick.abc, {
+	const variants = await lickGrid(lick.abc, {
 		keys: query.key ? [query.key] : undefined,
 		quality: query.quality as QualityId | undefined,
 		instrument: query.instrument,
 		versions: lick.versions
 	});
-	if (!grid.ok) throw new LibraryError(422, grid.error.message, {});
-	return { variants: grid.variants };
+	return { variants };
 }
 
 /** Device kinds the engine recognises, as tags (the trade's names, hyphenated). */

@@ -15,5 +15,5 @@ export const POST: RequestHandler = ({ locals, request }) =>
 		if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds, 'checks');
 		const body = await readJsonBody(request, MAX_LICK_BODY_BYTES);
 		if (!body.ok) return body.response;
-		return json(checkDraft(body.value), { status: 200 });
+		return json(await checkDraft(body.value), { status: 200 });
 	});

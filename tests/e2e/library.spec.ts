@@ -228,7 +228,7 @@ test('a public lick’s share link opens for a visitor, who can hear it in anoth
 	await visitor.getByLabel('Key', { exact: true }).selectOption('Bb');
 	await visitor.getByLabel('Instrument').selectOption('alto-sax');
 	await visitor.getByRole('button', { name: 'Show this key' }).click();
-	await expect(visitor.getByTestId('try-result')).toContainText('In B♭');
+	await expect(visitor.getByTestId('try-result')).toContainText('sounds in B♭');
 	// The recording is served to anyone holding the link, in byte ranges.
 	const src = (await visitor.locator('audio').getAttribute('src'))!;
 	const ranged = await visitor.request.get(src, { headers: { range: 'bytes=0-3' } });

@@ -1,5 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { superValidate } from 'sveltekit-superforms';
+import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { requireUser } from '$lib/server/auth/guard';
 import { deleteDeck, getDeck, updateDeck } from '$lib/server/library/decks';
@@ -42,7 +42,7 @@ export const actions: Actions = {
 		const form = await superValidate(request, zod4(deckSchema));
 		if (!form.valid) return fail(422, { form });
 		await orError(() => updateDeck(user, params.id, form.data));
-		return { form };
+		return message(form, 'Saved.');
 	},
 	delete: async ({ params }) => {
 		const user = requireUser();

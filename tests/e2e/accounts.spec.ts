@@ -85,7 +85,8 @@ test('a teacher sees the Teaching link and an honest empty studio', async ({ pag
 	await expect(nav.getByRole('link', { name: 'Teaching' })).toHaveAttribute('aria-current', 'page');
 	await expect(nav.getByRole('link', { name: 'Admin' })).toHaveCount(0);
 	await expect(page.getByText('Your classes will be listed here')).toBeVisible();
-	await expect(page.getByText('Your decks will be listed here')).toBeVisible();
+	await expect(page.getByText('0 licks in your library, 0 decks')).toBeVisible();
+	await expect(nav.getByRole('link', { name: 'Library' })).toBeVisible();
 });
 
 test('an admin made with the CLI reaches the outbox and sees the sign-up mail', async ({

@@ -4,8 +4,8 @@
  * with a signed-in user in `locals`.
  */
 import { normalizeSettings, type UserSettings } from '../../../src/lib/practice/settings';
+import type { SessionUser } from '../../../src/lib/server/auth/user';
 import { toSettingsColumns } from '../../../src/lib/server/study/settings';
-import type { SessionUser } from '../../../src/lib/server/auth/session';
 import {
 	ClassGroup,
 	ClassMember,

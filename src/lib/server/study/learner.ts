@@ -3,11 +3,9 @@
  * instrument, retention, daily minutes, key order and new-card pace. Read once per request.
  */
 import type { UserSettings } from '../../practice/settings';
+import { dayBounds, practiceDay } from '../../practice/day';
 import { getDb } from '../db/index';
-import { User } from '../db/models/index';
-import { settingsOf } from './settings';
-import { DEFAULT_NEW_PER_DAY } from '../../practice/queue';
-import { practiceDay, dayBounds } from '../../practice/day';
+import { readSettings } from './settings';
 
 /** Who is acting: at least an id; the settings when the session already holds them. */
 export interface Actor {
@@ -17,7 +15,6 @@ export interface Actor {
 
 export interface Learner {
 	id: string;
-	name: string;
 	timeZone: string;
 	dayStartHour: number;
 	instrument: string;
@@ -27,28 +24,25 @@ export interface Learner {
 	newPerDay: number;
 }
 
-/** A learner's settings and clock; null when the account does not exist. */
+/**
+ * A learner's settings and clock, from the session when it holds them (no query), else from
+ * the database; null when the account does not exist.
+ */
 export async function loadLearner(actor: Actor | string): Promise<Learner | null> {
 	const id = typeof actor === 'string' ? actor : actor.id;
 	getDb();
-	const row = await User.findByPk(id);
-	if (!row) return null;
-	const settings = typeof actor !== 'string' && actor.settings ? actor.settings : settingsOf(row);
-	// A per-learner pace may join the settings later; until then everyone has the default.
-	const pace = (settings as Partial<{ newPerDay: unknown }>).newPerDay;
+	const settings =
+		typeof actor !== 'string' && actor.settings ? actor.settings : await readSettings(id);
+	if (!settings) return null;
 	return {
 		id,
-		name: row.name,
 		timeZone: settings.timezone,
 		dayStartHour: settings.dayStartHour,
 		instrument: settings.instrument,
 		desiredRetention: settings.desiredRetention,
 		dailyMinutes: settings.dailyMinutes,
 		keyOrder: settings.keyOrder,
-		newPerDay:
-			typeof pace === 'number' && Number.isInteger(pace) && pace >= 0 && pace <= 50
-				? pace
-				: DEFAULT_NEW_PER_DAY
+		newPerDay: settings.newPerDay
 	};
 }
 

@@ -5,7 +5,8 @@
 import { Op, QueryTypes } from 'sequelize';
 import { getDb } from '../db/index';
 import { Assignment, ClassGroup, Comment, Lick, LickVersion, User } from '../db/models/index';
-import { computeVariant, type HandWrittenVersions, type QualityId } from '../../music';
+import type { HandWrittenVersions, QualityId } from '../../music';
+import { renderLickVariant } from '../music/render';
 import type { TodayAnswer, TodayItem } from '../../practice/api';
 import { pickKey, type KeyMode, type KeyPlay } from '../../practice/keys';
 import {
@@ -105,13 +106,8 @@ function sourceOf(a: Assignment & { ClassGroup?: ClassGroup }, day: string): Que
 	return { newPerDay: a.newPerDay, active };
 }
 
-/**
- * `GET /api/drill/today` for the actor.
- * @example await buildToday(me, new Date()) // { day: '2026-03-01', items: [ … ], counts, backlog }
- */
-export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> {
-	const learner = await loadLearner(actor);
-	if (!learner) throw new StudyError(404, 'No such learner.');
+/** Today's queue for a loaded learner, without rendering any prompt. */
+async function planToday(learner: Learner, now: Date) {
 	const { day, end } = learnerDay(learner, now);
 	const db = getDb();
 	const q = <T extends object>(sql: string, replacements: Record<string, unknown>) =>
@@ -148,6 +144,7 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 		const key = r.assignment_id ?? '';
 		introducedToday.set(key, (introducedToday.get(key) ?? 0) + 1);
 	}
+	const timings = times.map((t) => (t.reveal_ms ?? 0) + (t.grade_ms ?? 0));
 	const queue = buildQueue({
 		now,
 		day,
@@ -159,11 +156,56 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 		licksIntroducedToday: new Set(introduced.map((r) => r.lick_id)),
 		licksReviewedToday: new Set(reviewedLicks.map((r) => r.lick_id)),
 		dailyMinutes: learner.dailyMinutes,
-		secondsPerCard: estimateSecondsPerCard(
-			times.map((t) => (t.reveal_ms ?? 0) + (t.grade_ms ?? 0))
-		),
+		secondsPerCard: estimateSecondsPerCard(timings),
 		desiredRetention: learner.desiredRetention
 	});
+	return {
+		day,
+		end,
+		queue,
+		assignments,
+		doneToday: Number(done[0]?.n ?? 0),
+		/** Whether the minutes come from the learner's own prompt times (five or more). */
+		timed: timings.filter((ms) => ms > 0).length >= 5
+	};
+}
+
+/**
+ * The figures of today's queue without its prompts: what the drill will show, for the digest.
+ * @example await todayCounts(userId, new Date()) // { day: '2026-03-01', due: 12, new: 3, estimatedMinutes: 9, … }
+ */
+export async function todayCounts(
+	userId: string,
+	now: Date
+): Promise<{
+	day: string;
+	due: number;
+	new: number;
+	estimatedMinutes: number;
+	doneToday: number;
+	timed: boolean;
+}> {
+	const learner = await loadLearner(userId);
+	if (!learner) throw new StudyError(404, 'No such learner.');
+	const { day, queue, doneToday, timed } = await planToday(learner, now);
+	return {
+		day,
+		due: queue.due,
+		new: queue.new,
+		estimatedMinutes: queue.estimatedMinutes,
+		doneToday,
+		timed
+	};
+}
+
+/**
+ * `GET /api/drill/today` for the actor.
+ * @example await buildToday(me, new Date()) // { day: '2026-03-01', items: [ … ], counts, backlog }
+ */
+export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> {
+	const learner = await loadLearner(actor);
+	if (!learner) throw new StudyError(404, 'No such learner.');
+	const { day, end, queue, assignments, doneToday: done } = await planToday(learner, now);
 	const items = await promptsFor(
 		learner,
 		queue.entries.map((e) => e.card as LoadedCard),
@@ -179,7 +221,7 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 			due: items.filter((i) => !i.isNew).length,
 			new: items.filter((i) => i.isNew).length,
 			estimatedMinutes: queue.estimatedMinutes,
-			doneToday: Number(done[0]?.n ?? 0)
+			doneToday: done
 		},
 		backlog: { overdue: queue.overdue, catchUpDays: queue.catchUpDays, dailyCap: queue.dailyCap },
 		dailyMinutes: learner.dailyMinutes
@@ -246,22 +288,22 @@ async function promptsFor(
 		history.set(lick.id, [...past, { key, grade: 3, at: now }]);
 		const own: HandWrittenVersions = {};
 		for (const v of versions) if (v.lickId === lick.id) own[v.quality as QualityId] = v.abc;
-		const variant = computeVariant({
-			abc: lick.abc,
-			versions: own,
-			to: key,
-			quality: card.quality as QualityId,
-			instrument: learner.instrument
-		});
-		if (!variant.ok) {
+		// Through the engine's bounded door, shared with every other route that renders.
+		const rendered = await renderLickVariant(
+			{ abc: lick.abc, versions: own },
+			{ to: key, quality: card.quality as QualityId, instrument: learner.instrument }
+		);
+		if (!rendered.ok) {
+			if (rendered.status === 503) {
+				throw new StudyError(503, rendered.message, undefined, rendered.retryAfterSeconds);
+			}
 			// A lick its author broke after the card was made: skip it rather than fail the day.
 			console.error(
-				`drill: card ${card.id} (lick ${lick.id}) does not render: ${variant.error.message}`
+				`drill: card ${card.id} (lick ${lick.id}) does not render: ${rendered.message}`
 			);
 			continue;
 		}
-		// The engine's whole answer but its `ok` flag (PromptVariant follows VariantSuccess).
-		const { ok: _ok, ...body } = variant;
+		const variant = rendered.value;
 		const targetTempo = assignment?.targetTempo ?? lick.tempo;
 		const previews = previewDue(card.id, card, now, { desiredRetention: learner.desiredRetention });
 		items.push({
@@ -288,7 +330,7 @@ async function promptsFor(
 				3: previews[3].toISOString(),
 				4: previews[4].toISOString()
 			},
-			variant: body,
+			variant,
 			comments: comments
 				.filter((c) => c.cardId === card.id)
 				.map((c) => ({

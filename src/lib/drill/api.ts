@@ -22,27 +22,15 @@ async function classify(res: Response): Promise<SendResult | null> {
 }
 
 /**
- * Reads the parts of a review's answer the drill uses, whatever else the server sends with them.
- * @example readReviewAnswer({ review: { id: 'r1' }, card: { due: '2026-03-02T10:00:00Z' } }) // { reviewId: 'r1', due: '2026-03-02T10:00:00Z' }
+ * The answer to a review when it has the parts the drill relies on (the review's id and the
+ * card's state), else undefined: the grade still counts as sent, it just cannot be undone.
+ * @example readReviewAnswer({ review: { id: 'r1' }, card: { due: '…' }, again: null }) // the same object
  */
 export function readReviewAnswer(payload: unknown): ReviewAnswer | undefined {
 	if (!payload || typeof payload !== 'object') return undefined;
-	const p = payload as Record<string, unknown>;
-	const review = (p.review ?? {}) as Record<string, unknown>;
-	const card = (p.card ?? {}) as Record<string, unknown>;
-	const reviewId = p.reviewId ?? review.id;
-	const due = p.due ?? p.nextDue ?? card.due;
-	if (typeof reviewId !== 'string' && typeof reviewId !== 'number') return undefined;
-	const answer: ReviewAnswer = {
-		reviewId: String(reviewId),
-		due: typeof due === 'string' ? due : ''
-	};
-	const tempo = p.tempo ?? card.tempo;
-	if (typeof tempo === 'number') answer.tempo = tempo;
-	if (p.previews && typeof p.previews === 'object') {
-		answer.previews = p.previews as ReviewAnswer['previews'];
-	}
-	return answer;
+	const p = payload as Partial<ReviewAnswer>;
+	if (typeof p.review?.id !== 'string' || !p.card || typeof p.card !== 'object') return undefined;
+	return { ...p, again: p.again ?? null } as ReviewAnswer;
 }
 
 /** The outbox's sender over `fetch`. */

@@ -136,7 +136,7 @@ export class Outbox {
 				} else {
 					report.sent++;
 					if (op.kind === 'review' && result.answer) {
-						await this.store.rememberReviewId(op.clientId, result.answer.reviewId);
+						await this.store.rememberReviewId(op.clientId, result.answer.review.id);
 					}
 					onSent?.(op, result.answer);
 				}

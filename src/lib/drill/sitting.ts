@@ -5,7 +5,7 @@
  * prompt and takes back whatever it had put into the queue. Pure: every function returns a new
  * sitting, and times are passed in, so the whole thing can be stored as JSON and tested.
  */
-import type { DrillItem, Grade, ReviewAnswer } from './types';
+import type { Grade, ReviewAnswer, TodayItem } from './types';
 
 export type StepMode = 'teach' | 'recall';
 
@@ -13,7 +13,7 @@ export type StepMode = 'teach' | 'recall';
 export interface Step {
 	/** Unique in the sitting: the card and how many times it has come round. */
 	id: string;
-	item: DrillItem;
+	item: TodayItem;
 	/** `teach` shows notation and sound without a grade; `recall` asks to play from memory. */
 	mode: StepMode;
 	/** 0 the first time the card comes up in this sitting, 1 the next… */
@@ -56,7 +56,7 @@ export const RETURN_WITHIN_MINUTES = 60;
  * A sitting over today's items, in the order the server gave them.
  * @example startSitting([item]).steps[0].mode // 'teach' for a new lick, else 'recall'
  */
-export function startSitting(items: readonly DrillItem[]): Sitting {
+export function startSitting(items: readonly TodayItem[]): Sitting {
 	const seen = new Set<string>();
 	const steps: Step[] = [];
 	for (const item of items) {
@@ -133,7 +133,7 @@ export function finishTeaching(sitting: Sitting, at: string): Sitting {
  */
 export function comesBack(step: Step, grade: Grade, now: Date): boolean {
 	if (step.pass + 1 >= MAX_PASSES) return false;
-	const preview = step.item.previews[`${grade}`];
+	const preview = step.item.previews?.[grade];
 	if (!preview) return grade === 1;
 	const due = Date.parse(preview);
 	if (Number.isNaN(due)) return grade === 1;
@@ -172,7 +172,13 @@ export function recordGrade(sitting: Sitting, input: GradeInput): Sitting {
 	if (comesBack(step, input.grade, input.at)) {
 		const again: Step = {
 			id: stepId(step.item.cardId, step.pass + 1),
-			item: { ...step.item, tempo: input.tempo, isNew: false, previews: {} },
+			// Previews unknown until the server answers: the grade buttons show no times meanwhile.
+			item: {
+				...step.item,
+				tempo: input.tempo,
+				isNew: false,
+				previews: {} as TodayItem['previews']
+			},
 			mode: 'recall',
 			pass: step.pass + 1
 		};
@@ -184,28 +190,44 @@ export function recordGrade(sitting: Sitting, input: GradeInput): Sitting {
 }
 
 /**
- * Take the server's answer to a review into the sitting: kept on its log entry (for undo and the
- * summary), and its previews given to the step it put back, if that step has not been reached.
- * An answer for an undone or unknown review changes nothing.
- * @example applyAnswer(sitting, 'c1', { reviewId: 'r1', due: '2026-03-01T19:10:00Z' })
+ * Take the server's answer to a review into the sitting. It is kept on the review's log entry (for
+ * the summary), and it settles whether the card comes back today: the server's `again` prompt
+ * (its previews, key and tempo) replaces the guess made when the grade was given, a return the
+ * server does not ask for is taken out, and one it asks for is put in. Steps already reached are
+ * left alone; an answer for an undone or unknown review changes nothing.
+ * @example applyAnswer(sitting, 'c1', answer).log.at(-1)?.answer === answer // true
  */
 export function applyAnswer(sitting: Sitting, clientId: string, answer: ReviewAnswer): Sitting {
 	const index = sitting.log.findIndex((e) => e.clientId === clientId);
 	if (index < 0) return sitting;
-	const entry = sitting.log[index];
+	const entry: SittingEntry = { ...sitting.log[index], answer };
 	const log = [...sitting.log];
-	log[index] = { ...entry, answer };
-	let steps = sitting.steps;
+	log[index] = entry;
+	const graded = sitting.steps.find((s) => s.id === entry.stepId);
 	const returning = entry.insertedStepId
-		? steps.findIndex((s) => s.id === entry.insertedStepId)
+		? sitting.steps.findIndex((s) => s.id === entry.insertedStepId)
 		: -1;
-	if (returning >= sitting.position && answer.previews) {
-		steps = [...steps];
-		const step = steps[returning];
-		steps[returning] = {
-			...step,
-			item: { ...step.item, previews: answer.previews, tempo: answer.tempo ?? step.item.tempo }
+	if (!graded || (returning >= 0 && returning < sitting.position)) {
+		return { ...sitting, log };
+	}
+	let steps = sitting.steps;
+	if (answer.again && graded.pass + 1 < MAX_PASSES) {
+		const again: Step = {
+			id: stepId(graded.item.cardId, graded.pass + 1),
+			item: answer.again,
+			mode: 'recall',
+			pass: graded.pass + 1
 		};
+		if (returning >= 0) {
+			steps = [...steps];
+			steps[returning] = again;
+		} else {
+			steps = insertReturn({ ...sitting, steps }, again).steps;
+			entry.insertedStepId = again.id;
+		}
+	} else if (returning >= 0) {
+		steps = steps.filter((_, i) => i !== returning);
+		delete entry.insertedStepId;
 	}
 	return { ...sitting, steps, log };
 }
@@ -279,7 +301,7 @@ export function summarise(sitting: Sitting, startedAt: Date): SittingSummary {
 		if (!lickId) continue;
 		// The server's rung after the review when it said; otherwise a tempo played with a good grade.
 		const reached =
-			entry.answer?.tempo ?? (entry.grade && entry.grade >= 3 ? entry.tempo : undefined);
+			entry.answer?.card.tempo ?? (entry.grade && entry.grade >= 3 ? entry.tempo : undefined);
 		if (reached != null) best.set(lickId, Math.max(best.get(lickId) ?? 0, reached));
 	}
 	const tempoGains: TempoGain[] = [];

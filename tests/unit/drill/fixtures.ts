@@ -1,7 +1,7 @@
-import type { DrillItem } from '../../../src/lib/drill/types';
+import type { ReviewAnswer, TodayItem } from '../../../src/lib/drill/types';
 
-/** A prompt as `GET /api/drill/today` sends it, with only what the sitting reads filled in. */
-export function item(cardId: string, over: Partial<DrillItem> = {}): DrillItem {
+/** A prompt as `GET /api/drill/today` sends it, with only what the sitting reads set apart. */
+export function item(cardId: string, over: Partial<TodayItem> = {}): TodayItem {
 	return {
 		cardId,
 		lickId: `lick-${cardId}`,
@@ -9,13 +9,18 @@ export function item(cardId: string, over: Partial<DrillItem> = {}): DrillItem {
 		key: 'C',
 		writtenKey: 'C',
 		quality: '7',
+		homeQuality: '7',
 		instrument: 'concert',
 		tempo: 120,
 		targetTempo: 160,
 		swingRatio: 2,
 		abc: 'X:1\nK:C\nc',
+		note: '',
 		isNew: false,
-		previews: {},
+		state: 'review',
+		due: '2026-03-01T10:00:00.000Z',
+		retrievability: 0.8,
+		previews: {} as TodayItem['previews'],
 		variant: {
 			abc: 'X:1\nK:C\nc',
 			key: 'C',
@@ -26,6 +31,50 @@ export function item(cardId: string, over: Partial<DrillItem> = {}): DrillItem {
 			notes: [],
 			handWritten: false
 		},
+		comments: [],
+		version: 1,
 		...over
+	};
+}
+
+/** The server's answer to a review, with the card's tempo rung and its `again` prompt. */
+export function answer(
+	reviewId: string,
+	over: { tempo?: number | null; again?: TodayItem | null; due?: string } = {}
+): ReviewAnswer {
+	return {
+		review: {
+			id: reviewId,
+			cardId: 'card',
+			clientId: `client-${reviewId}`,
+			sittingId: null,
+			reviewedAt: '2026-03-01T19:00:00.000Z',
+			day: '2026-03-01',
+			grade: 3,
+			key: 'C',
+			quality: '7',
+			tempo: 120,
+			revealMs: null,
+			gradeMs: null,
+			undoneAt: null
+		},
+		card: {
+			id: 'card',
+			version: 2,
+			stateName: 'review',
+			due: over.due ?? '2026-03-05T19:00:00.000Z',
+			stability: 5,
+			difficulty: 5,
+			scheduledDays: 4,
+			learningSteps: 0,
+			reps: 3,
+			lapses: 0,
+			state: 2,
+			lastReview: '2026-03-01T19:00:00.000Z',
+			tempo: over.tempo === undefined ? 120 : over.tempo,
+			introducedDay: '2026-02-20'
+		},
+		duplicate: false,
+		again: over.again ?? null
 	};
 }

@@ -8,6 +8,7 @@ import {
 	type Sender
 } from '../../../src/lib/drill/outbox';
 import type { ReviewBody } from '../../../src/lib/drill/types';
+import { answer } from './fixtures';
 
 function body(clientId: string, reviewedAt = '2026-03-01T19:00:00.000Z'): ReviewBody {
 	return { cardId: `card-${clientId}`, key: 'C', quality: '7', grade: 3, clientId, reviewedAt };
@@ -21,9 +22,7 @@ function server(answers: Record<string, SendResult> = {}) {
 		async review(b) {
 			if (!online) return { kind: 'retry', message: 'No connection.' };
 			received.push(`POST ${b.clientId} ${b.reviewedAt}`);
-			return (
-				answers[b.clientId] ?? { kind: 'sent', answer: { reviewId: `r-${b.clientId}`, due: '' } }
-			);
+			return answers[b.clientId] ?? { kind: 'sent', answer: answer(`r-${b.clientId}`) };
 		},
 		async undo(reviewId) {
 			if (!online) return { kind: 'retry', message: 'No connection.' };
@@ -75,8 +74,8 @@ describe('Outbox', () => {
 
 		net.setOnline(true);
 		const heard: string[] = [];
-		const report = await box.flush(net.sender, (op, answer) =>
-			heard.push(`${op.clientId}→${answer?.reviewId}`)
+		const report = await box.flush(net.sender, (op, a) =>
+			heard.push(`${op.clientId}→${a?.review.id}`)
 		);
 		expect(report).toEqual({ sent: 2, refused: [], stopped: null, waiting: 0 });
 		expect(net.received).toEqual([
@@ -125,7 +124,7 @@ describe('Outbox', () => {
 			async review(b) {
 				await gate;
 				received.push(`POST ${b.clientId}`);
-				return { kind: 'sent', answer: { reviewId: `r-${b.clientId}`, due: '' } };
+				return { kind: 'sent', answer: answer(`r-${b.clientId}`) };
 			},
 			async undo(id) {
 				received.push(`DELETE ${id}`);

@@ -15,7 +15,7 @@ import {
 	type Sitting
 } from '../../../src/lib/drill/sitting';
 import type { Grade } from '../../../src/lib/drill/types';
-import { item } from './fixtures';
+import { answer, item } from './fixtures';
 
 const now = new Date('2026-03-01T19:00:00Z');
 const later = (minutes: number) => new Date(now.getTime() + minutes * 60_000).toISOString();
@@ -130,19 +130,44 @@ describe('recordGrade and comesBack', () => {
 });
 
 describe('applyAnswer', () => {
-	it('gives the returning step the previews and tempo of the answer', () => {
+	it("puts the server's again prompt in place of the guessed return", () => {
 		const s = grade(startSitting([item('a', { previews: reviewPreviews }), item('b')]), 1, 'c1');
-		const previews = { '1': later(11), '3': later(30) };
-		const t = applyAnswer(s, 'c1', { reviewId: 'r1', due: later(10), previews, tempo: 112 });
-		expect(t.log[0].answer?.reviewId).toBe('r1');
-		const back = t.steps.find((x) => x.id === 'a:1')!;
-		expect(back.item.previews).toEqual(previews);
-		expect(back.item.tempo).toBe(112);
+		const again = item('a', { key: 'Gb', tempo: 112, previews: reviewPreviews });
+		const t = applyAnswer(s, 'c1', answer('r1', { again }));
+		expect(t.log[0].answer?.review.id).toBe('r1');
+		expect(ids(t)).toEqual(['a:0/recall', 'b:0/recall', 'a:1/recall']);
+		expect(t.steps[2].item).toBe(again);
+	});
+
+	it('takes out a guessed return the server does not ask for, so undo has nothing left to take', () => {
+		const s = grade(startSitting([item('a'), item('b')]), 1, 'c1');
+		const t = applyAnswer(s, 'c1', answer('r1', { again: null }));
+		expect(ids(t)).toEqual(['a:0/recall', 'b:0/recall']);
+		expect(t.log[0].insertedStepId).toBeUndefined();
+		expect(undoLast(t)!.sitting.steps).toHaveLength(2);
+	});
+
+	it('puts in a return the server asks for that the grade did not guess', () => {
+		const s = grade(startSitting([item('a', { previews: reviewPreviews }), item('b')]), 3, 'c1');
+		expect(s.steps).toHaveLength(2);
+		const t = applyAnswer(s, 'c1', answer('r1', { again: item('a', { key: 'D' }) }));
+		expect(ids(t)).toEqual(['a:0/recall', 'b:0/recall', 'a:1/recall']);
+		expect(t.log[0].insertedStepId).toBe('a:1');
+		expect(undoLast(t)!.sitting.steps).toHaveLength(2);
+	});
+
+	it('leaves a return already reached as it is', () => {
+		let s = grade(startSitting([item('a')]), 1, 'c1');
+		expect(currentStep(s)?.id).toBe('a:1');
+		s = grade(s, 3, 'c2');
+		const t = applyAnswer(s, 'c1', answer('r1', { again: null }));
+		expect(t.steps).toEqual(s.steps);
+		expect(t.log[0].answer?.review.id).toBe('r1');
 	});
 
 	it('changes nothing for an unknown client id', () => {
 		const s = grade(startSitting([item('a')]), 3, 'c1');
-		expect(applyAnswer(s, 'nope', { reviewId: 'r', due: '' })).toBe(s);
+		expect(applyAnswer(s, 'nope', answer('r'))).toBe(s);
 	});
 });
 
@@ -181,7 +206,7 @@ describe('summarise', () => {
 		s = finishTeaching(s, later(1));
 		s = recordGrade(s, { grade: 4, clientId: 'c1', tempo: 128, at: new Date(later(3)) });
 		s = recordGrade(s, { grade: 2, clientId: 'c2', tempo: 150, at: new Date(later(5)) });
-		s = applyAnswer(s, 'c2', { reviewId: 'r2', due: later(3000), tempo: 140 });
+		s = applyAnswer(s, 'c2', answer('r2', { tempo: 140 }));
 		s = recordGrade(s, { grade: 3, clientId: 'c3', tempo: 100, at: new Date(later(12)) });
 		expect(isFinished(s)).toBe(true);
 		expect(summarise(s, now)).toEqual({

@@ -5,7 +5,7 @@
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { NewOutboxOp, OutboxOp, OutboxStore } from './outbox';
 import type { Sitting } from './sitting';
-import type { DrillToday } from './types';
+import type { TodayAnswer } from './types';
 
 /** A sitting in progress, resumed when the drill page is opened again the same practice day. */
 export interface SavedSitting {
@@ -13,7 +13,7 @@ export interface SavedSitting {
 	id: string;
 	sittingId: string;
 	startedAt: string;
-	today: DrillToday;
+	today: TodayAnswer;
 	sitting: Sitting;
 }
 

@@ -193,11 +193,18 @@ export function recordGrade(sitting: Sitting, input: GradeInput): Sitting {
  * Take the server's answer to a review into the sitting. It is kept on the review's log entry (for
  * the summary), and it settles whether the card comes back today: the server's `again` prompt
  * (its previews, key and tempo) replaces the guess made when the grade was given, a return the
- * server does not ask for is taken out, and one it asks for is put in. Steps already reached are
- * left alone; an answer for an undone or unknown review changes nothing.
+ * server does not ask for is taken out, and one it asks for is put in. Steps already passed are
+ * left alone, and so is the current one unless `keepCurrent` is false (the learner has only just
+ * come to it); an answer for an undone or unknown review changes nothing.
  * @example applyAnswer(sitting, 'c1', answer).log.at(-1)?.answer === answer // true
  */
-export function applyAnswer(sitting: Sitting, clientId: string, answer: ReviewAnswer): Sitting {
+export function applyAnswer(
+	sitting: Sitting,
+	clientId: string,
+	answer: ReviewAnswer,
+	options: { keepCurrent?: boolean } = {}
+): Sitting {
+	const keepCurrent = options.keepCurrent ?? true;
 	const index = sitting.log.findIndex((e) => e.clientId === clientId);
 	if (index < 0) return sitting;
 	const entry: SittingEntry = { ...sitting.log[index], answer };
@@ -207,7 +214,9 @@ export function applyAnswer(sitting: Sitting, clientId: string, answer: ReviewAn
 	const returning = entry.insertedStepId
 		? sitting.steps.findIndex((s) => s.id === entry.insertedStepId)
 		: -1;
-	if (!graded || (returning >= 0 && returning < sitting.position)) {
+	// The current prompt is changed only when the caller says the learner has not begun on it.
+	const reached = keepCurrent ? returning <= sitting.position : returning < sitting.position;
+	if (!graded || (returning >= 0 && reached)) {
 		return { ...sitting, log };
 	}
 	let steps = sitting.steps;

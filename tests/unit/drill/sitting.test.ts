@@ -14,7 +14,7 @@ import {
 	undoLast,
 	type Sitting
 } from '../../../src/lib/drill/sitting';
-import type { Grade } from '../../../src/lib/drill/types';
+import type { Grade, TodayItem } from '../../../src/lib/drill/types';
 import { answer, item } from './fixtures';
 
 const now = new Date('2026-03-01T19:00:00Z');
@@ -95,7 +95,7 @@ describe('recordGrade and comesBack', () => {
 		[3, {}, false],
 		[1, { '1': 'not a date' }, true]
 	] as const)('grade %d with previews %j brings the card back: %s', (g, previews, back) => {
-		const s = startSitting([item('a', { previews })]);
+		const s = startSitting([item('a', { previews: previews as TodayItem['previews'] })]);
 		expect(comesBack(currentStep(s)!, g, now)).toBe(back);
 		expect(grade(s, g).steps.length).toBe(back ? 2 : 1);
 	});
@@ -156,7 +156,16 @@ describe('applyAnswer', () => {
 		expect(undoLast(t)!.sitting.steps).toHaveLength(2);
 	});
 
-	it('leaves a return already reached as it is', () => {
+	it('changes the current prompt only when told the learner has not begun on it', () => {
+		const s = grade(startSitting([item('a')]), 1, 'c1');
+		expect(currentStep(s)?.id).toBe('a:1');
+		const again = item('a', { key: 'Ab' });
+		expect(applyAnswer(s, 'c1', answer('r1', { again })).steps).toEqual(s.steps);
+		const swapped = applyAnswer(s, 'c1', answer('r1', { again }), { keepCurrent: false });
+		expect(currentStep(swapped)?.item.key).toBe('Ab');
+	});
+
+	it('leaves a return already passed as it is', () => {
 		let s = grade(startSitting([item('a')]), 1, 'c1');
 		expect(currentStep(s)?.id).toBe('a:1');
 		s = grade(s, 3, 'c2');

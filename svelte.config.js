@@ -5,7 +5,10 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter({ out: 'build' })
+		adapter: adapter({ out: 'build' }),
+		// The service worker keeps the drill usable offline; the drill page registers it, so a
+		// visitor who never drills never installs it.
+		serviceWorker: { register: false }
 	}
 };
 

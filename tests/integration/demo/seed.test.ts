@@ -22,7 +22,10 @@ describe('seedDemo', () => {
 		expect(report.created).toEqual([
 			...DEMO_ACCOUNTS.map((account) => account.email),
 			...DEMO_LICKS.map((lick) => `lick:${lick.slug}`),
-			...DEMO_DECKS.map((deck) => `deck:${deck.slug}`)
+			...DEMO_DECKS.map((deck) => `deck:${deck.slug}`),
+			...DEMO_ACCOUNTS.filter((a) => a.role === 'learner').map(
+				(a) => `cards:${a.email}:${DEMO_LICKS.length}`
+			)
 		]);
 		const rows = await snapshot();
 		expect(rows.map((row) => [row.email, row.role])).toEqual([

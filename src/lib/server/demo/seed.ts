@@ -5,6 +5,7 @@ import { Deck, DeckLick, Lick, LickTag, User, type Role } from '../db/models/ind
 import { DEMO_DECKS, DEMO_LICKS } from '../../demo/licks';
 import { readLickHome } from '../../music/home';
 import type { Transaction } from 'sequelize';
+import { seedDemoPractice } from './practice';
 
 /**
  * The demo scenario: an invented evening school, the Lantern Street Jazz Workshop, with one
@@ -81,6 +82,10 @@ export async function seedDemo(password: string, now = new Date()): Promise<Seed
 		const teacher = await User.findOne({ where: { email: TEACHER_EMAIL }, transaction });
 		if (teacher) await seedDemoLibrary(teacher.id, report, transaction);
 	});
+	const learners = DEMO_ACCOUNTS.filter((a) => a.role === 'learner').map((a) => a.email);
+	for (const { email, created } of await seedDemoPractice(TEACHER_EMAIL, learners, now)) {
+		if (created > 0) report.created.push(`cards:${email}:${created}`);
+	}
 	return report;
 }
 

@@ -17,7 +17,7 @@ import { createSession, validateSessionToken } from '../../../src/lib/server/aut
 import { hashToken } from '../../../src/lib/server/auth/tokens';
 import { EmailToken, Session, User } from '../../../src/lib/server/db/models/index';
 import { listMessages } from '../../../src/lib/server/mail/outbox';
-import { openTestWorld, tokenFromOutbox, type TestWorld } from './setup';
+import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {

@@ -8,8 +8,8 @@ import { POST as signUpPost } from '../../../src/routes/api/auth/sign-up/+server
 import { POST as signInPost } from '../../../src/routes/api/auth/sign-in/+server';
 import { POST as signOutPost } from '../../../src/routes/api/auth/sign-out/+server';
 import { GET as meGet } from '../../../src/routes/api/me/+server';
-import { FakeCookies, fakeEvent, type FakeEventInput } from './fake-event';
-import { openTestWorld, tokenFromOutbox, type TestWorld } from './setup';
+import { FakeCookies, fakeEvent, type FakeEventInput } from '../support/fake-event';
+import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
 import { verifyEmail, promote } from '../../../src/lib/server/auth/accounts';
 
 let world: TestWorld;
@@ -156,7 +156,9 @@ describe('POST /api/auth/sign-in and the session cookie', () => {
 				digestEnabled: true,
 				desiredRetention: 0.9,
 				dailyMinutes: 15,
-				keyOrder: 'weighted'
+				keyOrder: 'weighted',
+				dayStartHour: 4,
+				newPerDay: 5
 			}
 		});
 	});

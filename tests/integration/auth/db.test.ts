@@ -3,7 +3,8 @@ import { Op, QueryTypes } from 'sequelize';
 import { migrate } from '../../../src/lib/server/db/migrate';
 import { sqliteStorageOf } from '../../../src/lib/server/db/index';
 import { EmailToken, Session, User } from '../../../src/lib/server/db/models/index';
-import { openTestWorld, type TestWorld } from './setup';
+import { settingsOf } from '../../../src/lib/server/study/settings';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {
@@ -22,7 +23,7 @@ describe('the database layer', () => {
 	test('running the migrations again applies nothing', async () => {
 		expect(await migrate(world.db)).toEqual([]);
 		const tables = await world.db.getQueryInterface().showAllTables();
-		expect(tables.sort()).toEqual(['email_tokens', 'schema_migrations', 'sessions', 'users']);
+		expect(tables).toEqual(expect.arrayContaining(['email_tokens', 'sessions', 'users', 'cards']));
 	});
 
 	test('every connection, including those of transactions, has WAL, foreign keys and a busy timeout', async () => {
@@ -139,17 +140,20 @@ describe('the database layer', () => {
 			email: 'settings@case.test',
 			name: 'S',
 			passwordHash: 'x',
-			settings: { digestHour: 21, timezone: 'Nowhere/Atlantis' } as never
+			digestHour: 21,
+			settings: { instrument: 'kazoo!', dailyMinutes: 30 }
 		});
 		const again = await User.findByPk(user.id);
-		expect(again!.settings).toEqual({
+		expect(settingsOf(again!)).toEqual({
 			timezone: 'UTC',
 			instrument: 'concert',
 			digestHour: 21,
 			digestEnabled: true,
 			desiredRetention: 0.9,
-			dailyMinutes: 15,
-			keyOrder: 'weighted'
+			dailyMinutes: 30,
+			keyOrder: 'weighted',
+			dayStartHour: 4,
+			newPerDay: 5
 		});
 	});
 });

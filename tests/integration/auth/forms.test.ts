@@ -8,8 +8,9 @@ import { actions as signInActions } from '../../../src/routes/(auth)/sign-in/+pa
 import { actions as signUpActions } from '../../../src/routes/(auth)/sign-up/+page.server';
 import { actions as forgotActions } from '../../../src/routes/(auth)/forgot-password/+page.server';
 import { actions as resetActions } from '../../../src/routes/(auth)/reset-password/+page.server';
-import { FakeCookies, fakeEvent } from './fake-event';
-import { openTestWorld, tokenFromOutbox, type TestWorld } from './setup';
+import { FakeCookies, fakeEvent } from '../support/fake-event';
+import { toSessionUser } from '../../../src/lib/server/auth/user';
+import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {
@@ -184,17 +185,7 @@ describe('asking for a new verification link', () => {
 	test('works three times an hour per account, then answers 429', async () => {
 		const { actions } = await import('../../../src/routes/(auth)/verify-email/+page.server');
 		const user = await User.findOne({ where: { email: 'form1@example.test' } });
-		const locals = {
-			user: {
-				id: user!.id,
-				email: user!.email,
-				name: user!.name,
-				role: user!.role,
-				emailVerified: false,
-				settings: user!.settings
-			},
-			session: null
-		};
+		const locals = { user: toSessionUser(user!), session: null };
 		const outcomes = [];
 		for (let i = 0; i < 4; i++) {
 			const event = fakeEvent({ method: 'POST', path: '/verify-email?/resend', locals });

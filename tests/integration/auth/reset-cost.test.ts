@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, test, vi } from 'vitest';
 import { createToken } from '../../../src/lib/server/auth/tokens';
-import { openTestWorld, type TestWorld } from './setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 // Count the argon2 hashes without changing them: the real function runs behind the spy.
 vi.mock('../../../src/lib/server/auth/password', async (importOriginal) => {
@@ -11,7 +11,7 @@ vi.mock('../../../src/lib/server/auth/password', async (importOriginal) => {
 const { hashPassword } = await import('../../../src/lib/server/auth/password');
 const { requestPasswordReset, resetPassword, signUp } =
 	await import('../../../src/lib/server/auth/accounts');
-const { tokenFromOutbox } = await import('./setup');
+const { tokenFromOutbox } = await import('../support/world');
 
 let world: TestWorld;
 beforeAll(async () => {

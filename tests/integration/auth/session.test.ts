@@ -9,7 +9,7 @@ import {
 } from '../../../src/lib/server/auth/session';
 import { hashToken } from '../../../src/lib/server/auth/tokens';
 import { Session, User } from '../../../src/lib/server/db/models/index';
-import { openTestWorld, type TestWorld } from './setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 let userId: string;

@@ -2,13 +2,14 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { isActionFailure, isRedirect } from '@sveltejs/kit';
 // @ts-expect-error: Kit's internal entry (what `getRequestEvent` reads from) publishes no types.
 import { with_request_store } from '@sveltejs/kit/internal/server';
-import { signUp, updateSettings } from '../../../src/lib/server/auth/accounts';
+import { signUp } from '../../../src/lib/server/auth/accounts';
 import type { SessionUser } from '../../../src/lib/server/auth/session';
-import { DEFAULT_SETTINGS } from '../../../src/lib/server/auth/settings';
+import { DEFAULT_SETTINGS } from '../../../src/lib/practice/settings';
+import { settingsOf, updateSettings } from '../../../src/lib/server/study/settings';
 import { User } from '../../../src/lib/server/db/models/index';
 import { actions, load } from '../../../src/routes/(learn)/settings/+page.server';
-import { fakeEvent } from './fake-event';
-import { openTestWorld, type TestWorld } from './setup';
+import { fakeEvent } from '../support/fake-event';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {
@@ -28,7 +29,9 @@ const FORM = {
 	desiredRetention: '0.85',
 	timezone: 'Europe/Lisbon',
 	digestHour: '18',
-	digestEnabled: 'on'
+	digestEnabled: 'on',
+	dayStartHour: '6',
+	newPerDay: '3'
 };
 
 let counter = 0;
@@ -45,7 +48,7 @@ async function newLearner(): Promise<SessionUser> {
 }
 
 async function storedSettings(userId: string) {
-	return (await User.findByPk(userId))!.settings;
+	return settingsOf((await User.findByPk(userId))!);
 }
 
 /** Run a route function as SvelteKit would: inside a request store, so `requireUser` works. */
@@ -93,10 +96,31 @@ describe('updateSettings', () => {
 			desiredRetention: 0.85,
 			timezone: 'Europe/Lisbon',
 			digestHour: 18,
-			digestEnabled: true
+			digestEnabled: true,
+			dayStartHour: 6,
+			newPerDay: 3
 		};
-		expect(result).toEqual({ ok: true, user: { ...user, settings: expected } });
+		expect(result).toEqual({ ok: true, settings: expected });
 		expect(await storedSettings(user.id)).toEqual(expected);
+	});
+
+	test('the queried settings are columns of users and are not kept twice in the JSON', async () => {
+		const user = await newLearner();
+		await updateSettings(user.id, FORM);
+		const row = (await User.findByPk(user.id))!;
+		expect({
+			timezone: row.timezone,
+			digestHour: row.digestHour,
+			digestEnabled: row.digestEnabled,
+			dayStartHour: row.dayStartHour
+		}).toEqual({ timezone: 'Europe/Lisbon', digestHour: 18, digestEnabled: true, dayStartHour: 6 });
+		expect(row.settings).toEqual({
+			instrument: 'alto-sax',
+			dailyMinutes: 25,
+			keyOrder: 'fourths',
+			desiredRetention: 0.85,
+			newPerDay: 3
+		});
 	});
 
 	test('unticking the reminder saves it as off', async () => {

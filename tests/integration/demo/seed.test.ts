@@ -3,7 +3,7 @@ import { signIn } from '../../../src/lib/server/auth/accounts';
 import { Deck, DeckLick, Lick, User } from '../../../src/lib/server/db/models/index';
 import { DEMO_DECKS, DEMO_LICKS } from '../../../src/lib/demo/licks';
 import { DEMO_ACCOUNTS, seedDemo } from '../../../src/lib/server/demo/seed';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {

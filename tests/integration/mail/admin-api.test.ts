@@ -13,7 +13,7 @@ import { verificationMail } from '$lib/server/mail/templates';
 import { GET as getHealth } from '../../../src/routes/api/admin/health/+server';
 import { GET as getOutbox } from '../../../src/routes/api/admin/outbox/+server';
 import { GET as getOutboxMessage } from '../../../src/routes/api/admin/outbox/[id]/+server';
-import { useTempDataDir } from './helpers';
+import { useTempDataDir } from '../support/mail';
 
 let data: Awaited<ReturnType<typeof useTempDataDir>>;
 

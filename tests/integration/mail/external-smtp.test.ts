@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { getMailStatus, sendMail, startMail, stopMail } from '$lib/server/mail';
 import { countMessages } from '$lib/server/mail/outbox';
 import { verificationMail } from '$lib/server/mail/templates';
-import { useTempDataDir } from './helpers';
+import { useTempDataDir } from '../support/mail';
 
 // A second smtp-server instance plays the external mail service that SMTP_URL points at; it
 // insists on credentials, so the test also shows that the URL's user and password reach it.

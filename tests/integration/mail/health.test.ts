@@ -2,7 +2,7 @@ import { rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkHealth } from '../../../src/lib/server/admin/health';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {

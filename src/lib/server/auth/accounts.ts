@@ -5,9 +5,10 @@ import { EmailToken, Session, User, type Role, type TokenPurpose } from '../db/m
 import { sendMail } from '../mail/index';
 import { passwordResetMail, verificationMail } from '../mail/templates/index';
 import { checkPasswordStrength, hashPassword, verifyPassword } from './password';
-import type { SessionUser } from './session';
-import { readSettingsInput, type UserSettings } from './settings';
 import { createToken, hashToken } from './tokens';
+import { toSessionUser, type SessionUser } from './user';
+
+export { toSessionUser } from './user';
 
 /**
  * The account service: every operation on users, their passwords and their mailed links.
@@ -65,18 +66,6 @@ function readName(value: unknown): string | null {
 		return null;
 	}
 	return name;
-}
-
-/** The user as the service hands it out: never the password hash. */
-export function toSessionUser(row: User): SessionUser {
-	return {
-		id: row.id,
-		email: row.email,
-		name: row.name,
-		role: row.role,
-		emailVerified: row.emailVerifiedAt instanceof Date,
-		settings: row.settings
-	};
 }
 
 function linkFor(path: string, token: string): string {
@@ -429,32 +418,6 @@ export async function deleteAccount(
 	}
 	await user.destroy();
 	return { ok: true };
-}
-
-export type UpdateSettingsResult =
-	| { ok: true; user: SessionUser }
-	| { ok: false; reason: 'invalid'; field: keyof UserSettings; message: string }
-	| { ok: false; reason: 'not-found'; message: string };
-
-/**
- * Replace a person's practice settings with the submitted ones, all checked strictly by
- * `readSettingsInput`; a refused field changes nothing.
- *
- * @example await updateSettings(user.id, { instrument: 'alto-sax', dailyMinutes: '20', keyOrder: 'fourths', desiredRetention: '0.9', timezone: 'Europe/Lisbon', digestHour: '18', digestEnabled: 'on' })
- * // → { ok: true, user: { settings: { instrument: 'alto-sax', dailyMinutes: 20, … }, … } }
- */
-export async function updateSettings(
-	userId: string,
-	input: unknown
-): Promise<UpdateSettingsResult> {
-	const read = readSettingsInput(input);
-	if (!read.ok) return { ok: false, reason: 'invalid', field: read.field, message: read.message };
-	getDb();
-	const user = await User.findByPk(userId);
-	if (!user) return { ok: false, reason: 'not-found', message: 'This account no longer exists.' };
-	user.settings = read.settings;
-	await user.save();
-	return { ok: true, user: toSessionUser(user) };
 }
 
 export type PromoteResult =

@@ -2,19 +2,11 @@ import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser 
 import { Op } from 'sequelize';
 import { getConfig } from '../config';
 import { getDb } from '../db/index';
-import { Session, User, type Role } from '../db/models/index';
-import { normalizeSettings, type UserSettings } from './settings';
+import { Session, User } from '../db/models/index';
 import { createToken, hashToken } from './tokens';
+import { toSessionUser, type SessionUser } from './user';
 
-/** The signed-in person as pages and endpoints see them (`locals.user`). */
-export interface SessionUser {
-	id: string;
-	email: string;
-	name: string;
-	role: Role;
-	emailVerified: boolean;
-	settings: UserSettings;
-}
+export type { SessionUser } from './user';
 
 /** The current session (`locals.session`). */
 export interface SessionInfo {
@@ -29,17 +21,12 @@ export const SESSION_COOKIE_NAME = 'twelvefold_session';
 /** Sessions last 30 days and are extended when used in their second half (lucia's rule). */
 const SESSION_DAYS = 30;
 
-interface UserAttributes {
-	email: string;
-	name: string;
-	role: Role;
-	emailVerifiedAt: Date | null;
-	settings: UserSettings;
-}
+/** What lucia carries from the adapter to `validateSession`: the user, built once. */
+type UserAttributes = Omit<SessionUser, 'id'>;
 
 declare module 'lucia' {
 	interface Register {
-		Lucia: Lucia<Record<never, never>, Omit<SessionUser, 'id'>>;
+		Lucia: Lucia<Record<never, never>, UserAttributes>;
 		DatabaseUserAttributes: UserAttributes;
 	}
 }
@@ -49,16 +36,8 @@ function toDatabaseSession(id: string, row: Session): DatabaseSession {
 }
 
 function toDatabaseUser(row: User): DatabaseUser {
-	return {
-		id: row.id,
-		attributes: {
-			email: row.email,
-			name: row.name,
-			role: row.role,
-			emailVerifiedAt: row.emailVerifiedAt,
-			settings: row.settings
-		}
-	};
+	const { id, ...attributes } = toSessionUser(row);
+	return { id, attributes };
 }
 
 /**
@@ -107,7 +86,7 @@ export function createSessionAdapter(): Adapter {
 	};
 }
 
-let lucia: Lucia<Record<never, never>, Omit<SessionUser, 'id'>> | null = null;
+let lucia: Lucia<Record<never, never>, UserAttributes> | null = null;
 
 /** Built on first use so that `NODE_ENV` (Secure cookies) is read at run time, not import time. */
 function getLucia() {
@@ -117,13 +96,7 @@ function getLucia() {
 			name: SESSION_COOKIE_NAME,
 			attributes: { secure: getConfig().production, sameSite: 'lax' }
 		},
-		getUserAttributes: (attributes) => ({
-			email: attributes.email,
-			name: attributes.name,
-			role: attributes.role,
-			emailVerified: attributes.emailVerifiedAt instanceof Date,
-			settings: normalizeSettings(attributes.settings)
-		})
+		getUserAttributes: (attributes) => attributes
 	});
 	return lucia;
 }
@@ -151,14 +124,7 @@ export async function validateSessionToken(token: string): Promise<ValidatedSess
 	const { user, session } = await getLucia().validateSession(token);
 	if (!user || !session) return { user: null, session: null };
 	return {
-		user: {
-			id: user.id,
-			email: user.email,
-			name: user.name,
-			role: user.role,
-			emailVerified: user.emailVerified,
-			settings: user.settings
-		},
+		user,
 		session: { id: hashToken(token), expiresAt: session.expiresAt, fresh: session.fresh }
 	};
 }

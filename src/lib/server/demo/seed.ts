@@ -1,4 +1,5 @@
-import { normalizeSettings, type UserSettings } from '../auth/settings';
+import { normalizeSettings, type UserSettings } from '../../practice/settings';
+import { toSettingsColumns } from '../study/settings';
 import { hashPassword } from '../auth/password';
 import { getDb } from '../db/index';
 import { Deck, DeckLick, Lick, LickTag, User, type Role } from '../db/models/index';
@@ -73,7 +74,7 @@ export async function seedDemo(password: string, now = new Date()): Promise<Seed
 					role: account.role,
 					passwordHash: hash,
 					emailVerifiedAt: now,
-					settings: normalizeSettings(account.settings)
+					...toSettingsColumns(normalizeSettings(account.settings))
 				},
 				{ transaction }
 			);

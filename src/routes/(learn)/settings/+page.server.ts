@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { changePassword, deleteAccount, updateSettings } from '$lib/server/auth/accounts';
+import { changePassword, deleteAccount } from '$lib/server/auth/accounts';
+import { updateSettings } from '$lib/server/study/settings';
 import { readForm } from '$lib/server/auth/form';
 import { requireUser } from '$lib/server/auth/guard';
 import { deleteSessionCookie } from '$lib/server/auth/session';
@@ -40,7 +41,9 @@ export const actions: Actions = {
 					desiredRetention: form.desiredRetention ?? '',
 					timezone: form.timezone ?? '',
 					digestHour: form.digestHour ?? '',
-					digestEnabled: form.digestEnabled === 'on'
+					digestEnabled: form.digestEnabled === 'on',
+					dayStartHour: form.dayStartHour ?? '',
+					newPerDay: form.newPerDay ?? ''
 				}
 			});
 		}

@@ -6,7 +6,6 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
-import { DEFAULT_SETTINGS, normalizeSettings, type UserSettings } from '../../auth/settings';
 
 export const ROLES = ['learner', 'teacher', 'admin'] as const;
 export type Role = (typeof ROLES)[number];
@@ -24,7 +23,18 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	declare passwordHash: string;
 	/** When the address was confirmed through the mailed link; null until then. */
 	declare emailVerifiedAt: CreationOptional<Date | null>;
-	declare settings: CreationOptional<UserSettings>;
+	/** IANA zone of the learner's day and reminder (column: queried by the digest). */
+	declare timezone: CreationOptional<string>;
+	/** Local hour (0–23) of the daily digest mail. */
+	declare digestHour: CreationOptional<number>;
+	declare digestEnabled: CreationOptional<boolean>;
+	/** Local hour (0–23) the practice day starts. */
+	declare dayStartHour: CreationOptional<number>;
+	/**
+	 * The practice settings nobody queries across users (instrument, minutes, key order…), as
+	 * stored: loose JSON read through `settingsOf` in `$lib/server/study/settings.ts`.
+	 */
+	declare settings: CreationOptional<Record<string, unknown>>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -45,14 +55,11 @@ export function initUser(sequelize: Sequelize): void {
 			role: { type: DataTypes.ENUM(...ROLES), allowNull: false, defaultValue: 'learner' },
 			passwordHash: { type: DataTypes.STRING(255), allowNull: false },
 			emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
-			settings: {
-				type: DataTypes.JSON,
-				allowNull: false,
-				defaultValue: DEFAULT_SETTINGS,
-				get() {
-					return normalizeSettings(this.getDataValue('settings'));
-				}
-			},
+			timezone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+			digestHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 7 },
+			digestEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+			dayStartHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 4 },
+			settings: { type: DataTypes.JSON, allowNull: false, defaultValue: {} },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

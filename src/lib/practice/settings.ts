@@ -1,8 +1,11 @@
-import { isInstrumentId } from '../../music/instruments';
+import { isInstrumentId } from '../music/instruments';
 
 /**
- * A learner's preferences, stored as one JSON column on the user. Every reader goes through
- * `normalizeSettings`, so adding a field later needs no migration: old rows get its default.
+ * A learner's practice settings: the type, the defaults, the limits a form may choose within, and
+ * the reading of loose input. Pure, so the settings form and the server import the same rules.
+ * Storage is the server's (`$lib/server/study/settings.ts`): the settings it queries are columns
+ * on `users`, the rest one JSON column; every reader goes through `normalizeSettings`, so a field
+ * added later needs no migration for the JSON part (old rows get its default).
  */
 export interface UserSettings {
 	/** IANA time zone; the digest goes out at `digestHour` local time there. */
@@ -19,7 +22,14 @@ export interface UserSettings {
 	dailyMinutes: number;
 	/** How prompt keys are chosen: weighted toward weak keys, or around the cycle of fourths. */
 	keyOrder: 'weighted' | 'fourths';
+	/** Local hour (0–23) at which the learner's practice day starts (`practiceDay` in `day.ts`). */
+	dayStartHour: number;
+	/** New licks a day introduced from the learner's own decks (classes set their own pace). */
+	newPerDay: number;
 }
+
+export type KeyOrder = UserSettings['keyOrder'];
+export const KEY_ORDERS = ['weighted', 'fourths'] as const satisfies readonly KeyOrder[];
 
 export const DEFAULT_SETTINGS: Readonly<UserSettings> = Object.freeze({
 	timezone: 'UTC',
@@ -29,7 +39,10 @@ export const DEFAULT_SETTINGS: Readonly<UserSettings> = Object.freeze({
 	// ts-fsrs' own default request_retention.
 	desiredRetention: 0.9,
 	dailyMinutes: 15,
-	keyOrder: 'weighted'
+	keyOrder: 'weighted',
+	// A sitting after midnight still counts for the evening before (common practice).
+	dayStartHour: 4,
+	newPerDay: 5
 });
 
 function isValidTimezone(zone: string): boolean {
@@ -71,6 +84,16 @@ export function normalizeSettings(raw: unknown): UserSettings {
 		if (m >= 1 && m <= 240) out.dailyMinutes = m;
 	}
 	if (value.keyOrder === 'weighted' || value.keyOrder === 'fourths') out.keyOrder = value.keyOrder;
+	if (Number.isInteger(value.dayStartHour)) {
+		const h = value.dayStartHour as number;
+		if (h >= 0 && h <= 23) out.dayStartHour = h;
+	}
+	if (Number.isInteger(value.newPerDay)) {
+		const n = value.newPerDay as number;
+		if (n >= SETTINGS_LIMITS.newPerDay.min && n <= SETTINGS_LIMITS.newPerDay.max) {
+			out.newPerDay = n;
+		}
+	}
 	return out;
 }
 
@@ -90,7 +113,9 @@ export const SETTINGS_LIMITS = Object.freeze({
 	// daily review load explodes; below about 0.7 so much is forgotten between reviews that they
 	// become relearning rather than review.
 	desiredRetention: { min: 0.7, max: 0.97 },
-	digestHour: { min: 0, max: 23 }
+	digestHour: { min: 0, max: 23 },
+	dayStartHour: { min: 0, max: 23 },
+	newPerDay: { min: 1, max: 20 }
 });
 
 /** The loose form (or JSON) input: every field as sent, usually a string. */
@@ -152,7 +177,12 @@ export function readSettingsInput(input: unknown): SettingsInputResult {
 		input && typeof input === 'object' && !Array.isArray(input) ? (input as SettingsInput) : {};
 	const refuse = (field: keyof UserSettings, message: string) =>
 		({ ok: false, field, message }) as const;
-	const { dailyMinutes: minutes, desiredRetention: retention, digestHour: hour } = SETTINGS_LIMITS;
+	const {
+		dailyMinutes: minutes,
+		desiredRetention: retention,
+		digestHour: hour,
+		newPerDay: fresh
+	} = SETTINGS_LIMITS;
 
 	const instrument = typeof form.instrument === 'string' ? form.instrument.trim() : '';
 	if (!isInstrumentId(instrument)) {
@@ -194,6 +224,17 @@ export function readSettingsInput(input: unknown): SettingsInputResult {
 	if (digestEnabled === null) {
 		return refuse('digestEnabled', 'The daily reminder is either on or off.');
 	}
+	const dayStartHour = readInteger(form.dayStartHour);
+	if (dayStartHour === null || dayStartHour < hour.min || dayStartHour > hour.max) {
+		return refuse('dayStartHour', 'Choose the hour your practice day starts, from 0 to 23.');
+	}
+	const newPerDay = readInteger(form.newPerDay);
+	if (newPerDay === null || newPerDay < fresh.min || newPerDay > fresh.max) {
+		return refuse(
+			'newPerDay',
+			`Enter a whole number of new licks a day from ${fresh.min} to ${fresh.max}.`
+		);
+	}
 	return {
 		ok: true,
 		settings: {
@@ -203,7 +244,9 @@ export function readSettingsInput(input: unknown): SettingsInputResult {
 			digestEnabled,
 			desiredRetention,
 			dailyMinutes,
-			keyOrder: form.keyOrder
+			keyOrder: form.keyOrder,
+			dayStartHour,
+			newPerDay
 		}
 	};
 }

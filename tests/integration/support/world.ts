@@ -18,7 +18,7 @@ export interface TestWorld {
 	close(): Promise<void>;
 }
 
-export async function openTestWorld(): Promise<TestWorld> {
+export async function openTestWorld(options: { migrate?: boolean } = {}): Promise<TestWorld> {
 	const dataDir = await mkdtemp(path.join(os.tmpdir(), 'twelvefold-auth-'));
 	process.env.DATA_DIR = dataDir;
 	process.env.PUBLIC_BASE_URL = 'http://twelvefold.test';
@@ -26,7 +26,7 @@ export async function openTestWorld(): Promise<TestWorld> {
 	delete process.env.SMTP_URL;
 	resetConfig();
 	const db = openDb(`sqlite:${path.join(dataDir, 'test.sqlite')}`);
-	await migrate(db);
+	if (options.migrate !== false) await migrate(db);
 	return {
 		dataDir,
 		db,

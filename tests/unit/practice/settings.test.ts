@@ -1,10 +1,11 @@
 import { describe, expect, test } from 'vitest';
-import { INSTRUMENT_IDS } from '../../../../src/lib/music/instruments';
+import { INSTRUMENT_IDS } from '../../../src/lib/music/instruments';
 import {
 	DEFAULT_SETTINGS,
+	normalizeSettings,
 	readSettingsInput,
 	type UserSettings
-} from '../../../../src/lib/server/auth/settings';
+} from '../../../src/lib/practice/settings';
 
 /** A complete, valid submission of the practice form, as the browser sends it. */
 const FORM = {
@@ -14,7 +15,9 @@ const FORM = {
 	desiredRetention: '0.85',
 	timezone: 'Europe/Lisbon',
 	digestHour: '18',
-	digestEnabled: 'on'
+	digestEnabled: 'on',
+	dayStartHour: '5',
+	newPerDay: '8'
 };
 
 const SAVED: UserSettings = {
@@ -24,7 +27,9 @@ const SAVED: UserSettings = {
 	desiredRetention: 0.85,
 	timezone: 'Europe/Lisbon',
 	digestHour: 18,
-	digestEnabled: true
+	digestEnabled: true,
+	dayStartHour: 5,
+	newPerDay: 8
 };
 
 describe('readSettingsInput', () => {
@@ -51,6 +56,10 @@ describe('readSettingsInput', () => {
 		[{ desiredRetention: '.97' }, { desiredRetention: 0.97 }],
 		[{ desiredRetention: '0.900' }, { desiredRetention: 0.9 }],
 		[{ keyOrder: 'weighted' }, { keyOrder: 'weighted' }],
+		[{ dayStartHour: '0' }, { dayStartHour: 0 }],
+		[{ dayStartHour: '23' }, { dayStartHour: 23 }],
+		[{ newPerDay: '1' }, { newPerDay: 1 }],
+		[{ newPerDay: '20' }, { newPerDay: 20 }],
 		// An unticked checkbox is simply absent from the form.
 		[{ digestEnabled: undefined }, { digestEnabled: false }],
 		[{ digestEnabled: '' }, { digestEnabled: false }],
@@ -103,7 +112,14 @@ describe('readSettingsInput', () => {
 		[{ digestHour: '7:00' }, 'digestHour'],
 		[{ digestHour: '' }, 'digestHour'],
 		[{ digestEnabled: 'yes please' }, 'digestEnabled'],
-		[{ digestEnabled: 1 }, 'digestEnabled']
+		[{ digestEnabled: 1 }, 'digestEnabled'],
+		[{ dayStartHour: '24' }, 'dayStartHour'],
+		[{ dayStartHour: '' }, 'dayStartHour'],
+		[{ dayStartHour: undefined }, 'dayStartHour'],
+		[{ newPerDay: '0' }, 'newPerDay'],
+		[{ newPerDay: '21' }, 'newPerDay'],
+		[{ newPerDay: '2.5' }, 'newPerDay'],
+		[{ newPerDay: undefined }, 'newPerDay']
 	])('%j is refused on the field %s', (change, field) => {
 		const result = readSettingsInput({ ...FORM, ...change });
 		expect(result).toMatchObject({ ok: false, field });
@@ -123,6 +139,8 @@ describe('readSettingsInput', () => {
 			dailyMinutes: String(DEFAULT_SETTINGS.dailyMinutes),
 			digestHour: String(DEFAULT_SETTINGS.digestHour),
 			desiredRetention: String(DEFAULT_SETTINGS.desiredRetention),
+			dayStartHour: String(DEFAULT_SETTINGS.dayStartHour),
+			newPerDay: String(DEFAULT_SETTINGS.newPerDay),
 			digestEnabled: DEFAULT_SETTINGS.digestEnabled ? 'on' : undefined
 		};
 		expect(readSettingsInput(asForm)).toEqual({ ok: true, settings: DEFAULT_SETTINGS });
@@ -135,7 +153,9 @@ describe('readSettingsInput', () => {
 					['instrument', 'kazoo'],
 					['dailyMinutes', '0'],
 					['desiredRetention', '0.5'],
-					['digestHour', '30']
+					['digestHour', '30'],
+					['dayStartHour', '25'],
+					['newPerDay', '50']
 				] as const
 			).map(([field, bad]) => {
 				const result = readSettingsInput({ ...FORM, [field]: bad });
@@ -146,7 +166,28 @@ describe('readSettingsInput', () => {
 			instrument: 'Choose one of the instruments in the list.',
 			dailyMinutes: 'Enter a whole number of minutes from 5 to 120.',
 			desiredRetention: 'Choose how much to remember: a share from 0.70 to 0.97.',
-			digestHour: 'Choose an hour of the day from 0 to 23.'
+			digestHour: 'Choose an hour of the day from 0 to 23.',
+			dayStartHour: 'Choose the hour your practice day starts, from 0 to 23.',
+			newPerDay: 'Enter a whole number of new licks a day from 1 to 20.'
 		});
+	});
+});
+
+describe('normalizeSettings', () => {
+	test.each([
+		[null, DEFAULT_SETTINGS],
+		['not json', DEFAULT_SETTINGS],
+		[
+			{ dayStartHour: 6, newPerDay: 12 },
+			{ ...DEFAULT_SETTINGS, dayStartHour: 6, newPerDay: 12 }
+		],
+		[{ dayStartHour: 24, newPerDay: 0 }, DEFAULT_SETTINGS],
+		['{"digestHour":20,"bogus":1}', { ...DEFAULT_SETTINGS, digestHour: 20 }]
+	])('a stored %j loads as %j', (stored, expected) => {
+		expect(normalizeSettings(stored)).toEqual(expected);
+	});
+
+	test('the practice day starts at 4 and five new licks come a day unless chosen otherwise', () => {
+		expect(DEFAULT_SETTINGS).toMatchObject({ dayStartHour: 4, newPerDay: 5 });
 	});
 });

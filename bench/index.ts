@@ -122,3 +122,6 @@ const lines = [
 ];
 console.log(lines.join('\n'));
 if (sink === 0) console.log('(nothing computed)');
+
+// The drill's figures: today's queue over 5,000 cards, and review writes under load.
+await import('./drill');

@@ -14,7 +14,8 @@ import { DELETE as reviewDelete } from '../../../src/routes/api/drill/reviews/[i
 import { GET as cardGet } from '../../../src/routes/api/cards/[id]/+server';
 import { POST as cardsPost } from '../../../src/routes/api/cards/+server';
 import { GET as progressGet } from '../../../src/routes/api/drill/progress/+server';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { dueCounts, learnerStreak, weakestKeys } from '../../../src/lib/server/study/progress';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { call, makeClass, makeDeck, makeLick, makeUser } from './world';
 
 let world: TestWorld;
@@ -380,5 +381,28 @@ describe('GET /api/drill/progress', () => {
 		expect(p.forecast).toHaveLength(14);
 		expect(p.tempos).toHaveLength(1);
 		expect(p.cards.total).toBe(1);
+	});
+});
+
+describe('figures other features reuse', () => {
+	it('counts due, waiting and introduced cards, the streak and the weakest keys', async () => {
+		const { learner, cardId } = await learnerWithCard();
+		const lick = await makeLick(learner, 'private', 'Second line');
+		await call(cardsPost, learner, { method: 'POST', body: { lickId: lick.id } });
+		expect(await dueCounts(learner.id, new Date())).toMatchObject({
+			due: 0,
+			waitingNew: 2,
+			introducedToday: 0
+		});
+		await call(reviewPost, learner, { method: 'POST', body: grade(cardId, 1, { key: 'B' }) });
+		await call(reviewPost, learner, { method: 'POST', body: grade(cardId, 2, { key: 'D' }) });
+		// The card is in a learning step, due later within today's practice day.
+		expect(await dueCounts(learner.id, new Date())).toMatchObject({
+			due: 1,
+			waitingNew: 1,
+			introducedToday: 1
+		});
+		expect(await learnerStreak(learner.id, new Date())).toEqual({ current: 1, longest: 1 });
+		expect(await weakestKeys(learner.id, new Date(), 2)).toEqual(['B', 'D']);
 	});
 });

@@ -3,8 +3,9 @@
  * real SQLite file (the world of `openTestWorld`), and route handlers called as plain functions
  * with a signed-in user in `locals`.
  */
-import { normalizeSettings, type UserSettings } from '../../../src/lib/server/auth/settings';
-import type { SessionUser } from '../../../src/lib/server/auth/session';
+import { normalizeSettings, type UserSettings } from '../../../src/lib/practice/settings';
+import type { SessionUser } from '../../../src/lib/server/auth/user';
+import { toSettingsColumns } from '../../../src/lib/server/study/settings';
 import {
 	ClassGroup,
 	ClassMember,
@@ -15,7 +16,7 @@ import {
 	type Role,
 	type Visibility
 } from '../../../src/lib/server/db/models/index';
-import { fakeEvent, type FakeEventInput } from '../auth/fake-event';
+import { fakeEvent, type FakeEventInput } from '../support/fake-event';
 
 let serial = 0;
 
@@ -30,7 +31,7 @@ export async function makeUser(
 		role,
 		passwordHash: 'not-a-real-hash',
 		emailVerifiedAt: new Date(),
-		settings: normalizeSettings(settings)
+		...toSettingsColumns(normalizeSettings(settings))
 	});
 	return {
 		id: row.id,

@@ -2,11 +2,10 @@
  * What the drill needs to know about a learner: their clock (zone and day-start hour), their
  * instrument, retention, daily minutes, key order and new-card pace. Read once per request.
  */
-import { QueryTypes } from 'sequelize';
-import { normalizeSettings, type UserSettings } from '../auth/settings';
+import type { UserSettings } from '../../practice/settings';
+import { dayBounds, practiceDay } from '../../practice/day';
 import { getDb } from '../db/index';
-import { DEFAULT_NEW_PER_DAY } from '../../practice/queue';
-import { practiceDay, dayBounds } from '../../practice/day';
+import { readSettings } from './settings';
 
 /** Who is acting: at least an id; the settings when the session already holds them. */
 export interface Actor {
@@ -16,7 +15,6 @@ export interface Actor {
 
 export interface Learner {
 	id: string;
-	name: string;
 	timeZone: string;
 	dayStartHour: number;
 	instrument: string;
@@ -26,32 +24,25 @@ export interface Learner {
 	newPerDay: number;
 }
 
-/** A learner's settings and clock; null when the account does not exist. */
+/**
+ * A learner's settings and clock, from the session when it holds them (no query), else from
+ * the database; null when the account does not exist.
+ */
 export async function loadLearner(actor: Actor | string): Promise<Learner | null> {
 	const id = typeof actor === 'string' ? actor : actor.id;
-	const rows = await getDb().query<{ name: string; settings: unknown; day_start_hour: number }>(
-		'SELECT name, settings, day_start_hour FROM users WHERE id = :id',
-		{ replacements: { id }, type: QueryTypes.SELECT }
-	);
-	if (rows.length === 0) return null;
-	const row = rows[0];
+	getDb();
 	const settings =
-		typeof actor !== 'string' && actor.settings ? actor.settings : normalizeSettings(row.settings);
-	// A per-learner pace may join the settings later; until then everyone has the default.
-	const pace = (settings as Partial<{ newPerDay: unknown }>).newPerDay;
+		typeof actor !== 'string' && actor.settings ? actor.settings : await readSettings(id);
+	if (!settings) return null;
 	return {
 		id,
-		name: row.name,
 		timeZone: settings.timezone,
-		dayStartHour: Number.isInteger(row.day_start_hour) ? row.day_start_hour : 4,
+		dayStartHour: settings.dayStartHour,
 		instrument: settings.instrument,
 		desiredRetention: settings.desiredRetention,
 		dailyMinutes: settings.dailyMinutes,
 		keyOrder: settings.keyOrder,
-		newPerDay:
-			typeof pace === 'number' && Number.isInteger(pace) && pace >= 0 && pace <= 50
-				? pace
-				: DEFAULT_NEW_PER_DAY
+		newPerDay: settings.newPerDay
 	};
 }
 

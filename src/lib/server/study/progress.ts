@@ -27,23 +27,30 @@ async function requireLearner(actor: Actor | string): Promise<Learner> {
 export const MATURE_DAYS = 21;
 
 /**
- * Cards due today (due before the practice day ends, new cards left out) and new cards waiting.
- * For the digest and the class page; `userId` is the learner's own id (callers check access).
- * @example await dueCounts(userId, new Date()) // { day: '2026-03-01', due: 12, waitingNew: 30 }
+ * Cards due today (due before the practice day ends, new cards left out), new cards waiting
+ * (not retired), and cards introduced today. For the digest and the class page; `userId` is the
+ * learner's own id (callers check access).
+ * @example await dueCounts(userId, new Date()) // { day: '2026-03-01', due: 12, waitingNew: 30, introducedToday: 3 }
  */
 export async function dueCounts(
 	userId: string,
 	now: Date
-): Promise<{ day: string; due: number; waitingNew: number }> {
+): Promise<{ day: string; due: number; waitingNew: number; introducedToday: number }> {
 	const learner = await requireLearner(userId);
 	const { day, end } = learnerDay(learner, now);
-	const [row] = await select<{ due: number; fresh: number }>(
+	const [row] = await select<{ due: number; fresh: number; introduced: number }>(
 		`SELECT SUM(CASE WHEN state <> 0 AND due < :end THEN 1 ELSE 0 END) AS due,
-		        SUM(CASE WHEN state = 0 AND retired_at IS NULL THEN 1 ELSE 0 END) AS fresh
+		        SUM(CASE WHEN state = 0 AND retired_at IS NULL THEN 1 ELSE 0 END) AS fresh,
+		        SUM(CASE WHEN introduced_day = :day THEN 1 ELSE 0 END) AS introduced
 		 FROM cards WHERE user_id = :id`,
-		{ id: userId, end }
+		{ id: userId, end, day }
 	);
-	return { day, due: Number(row?.due ?? 0), waitingNew: Number(row?.fresh ?? 0) };
+	return {
+		day,
+		due: Number(row?.due ?? 0),
+		waitingNew: Number(row?.fresh ?? 0),
+		introducedToday: Number(row?.introduced ?? 0)
+	};
 }
 
 /** @example await learnerStreak(userId, new Date()) // { current: 4, longest: 9 } */

@@ -11,7 +11,9 @@ import type { GradeValue, ReviewAnswer } from '../../practice/api';
 import { balancer } from '../../practice/balance';
 import { practiceDay } from '../../practice/day';
 import { keyPitchClass } from '../../practice/keys';
-import { gradeCard, stateName } from '../../practice/scheduler';
+import { gradeCard, stateName, type DayRange } from '../../practice/scheduler';
+
+const DAY_MS = 86_400_000;
 import { nextRung, promptTempo } from '../../practice/tempo';
 import { isId, reviewRecordOf, StudyError } from './cards';
 import { learnerDay, loadLearner, type Actor, type Learner } from './learner';
@@ -176,7 +178,14 @@ export async function recordReview(
 	if (!isId(input.cardId)) throw new StudyError(404, 'No such card.');
 
 	for (let attempt = 0; attempt < ATTEMPTS; attempt++) {
-		const card = await Card.findOne({ where: { id: input.cardId, userId: learner.id } });
+		// The card with what sets its target tempo, in one query.
+		const card = (await Card.findOne({
+			where: { id: input.cardId, userId: learner.id },
+			include: [
+				{ model: Lick, attributes: ['tempo'] },
+				{ model: Assignment, attributes: ['targetTempo'] }
+			]
+		})) as (Card & { Lick?: Lick; Assignment?: Assignment | null }) | null;
 		if (!card) throw new StudyError(404, 'No such card.');
 		if (card.quality !== input.quality) {
 			throw new StudyError(
@@ -185,12 +194,8 @@ export async function recordReview(
 				'quality'
 			);
 		}
-		const [lick, assignment] = await Promise.all([
-			Lick.findByPk(card.lickId, { attributes: ['tempo'] }),
-			card.assignmentId
-				? Assignment.findByPk(card.assignmentId, { attributes: ['targetTempo'] })
-				: null
-		]);
+		const lick = card.Lick;
+		const assignment = card.Assignment;
 		const target = assignment?.targetTempo ?? lick?.tempo ?? 120;
 		const before = cardStateOf(card);
 		const reviewedAt = input.reviewedAt ?? now;
@@ -199,7 +204,18 @@ export async function recordReview(
 		const lastReview = before.lastReview ? new Date(before.lastReview) : null;
 		const gradeAt = lastReview && lastReview > reviewedAt ? lastReview : reviewedAt;
 		const day = practiceDay(reviewedAt, learner.timeZone, learner.dayStartHour);
-		const pickDays = balancer(await loadContext(learner, card.id, card.lickId));
+		// First find the days the interval may land on, then read only the cards due around them.
+		let window: DayRange | null = null;
+		gradeCard(card.id, schedulingOf(before), input.grade, gradeAt, {
+			desiredRetention: learner.desiredRetention,
+			pickDays: (range) => {
+				window = range;
+				return range.fuzzed;
+			}
+		});
+		const pickDays = window
+			? balancer(await loadContext(learner, card.id, card.lickId, gradeAt, window))
+			: undefined;
 		const result = gradeCard(card.id, schedulingOf(before), input.grade, gradeAt, {
 			desiredRetention: learner.desiredRetention,
 			pickDays
@@ -265,16 +281,38 @@ export async function recordReview(
 	);
 }
 
-/** What balancing needs: review cards due per practice day, and the days a sibling is due. */
-async function loadContext(learner: Learner, cardId: string, lickId: string) {
+/**
+ * What balancing needs, for the days an interval may land on (a day of margin either side, as
+ * the balancer may step one out to keep siblings apart): review cards due per practice day, and
+ * the days a sibling is due. Read through the (user, state, due) index.
+ */
+async function loadContext(
+	learner: Learner,
+	cardId: string,
+	lickId: string,
+	at: Date,
+	range: DayRange
+) {
+	const from = new Date(at.getTime() + (range.min - 2) * DAY_MS);
+	const to = new Date(at.getTime() + (range.max + 2) * DAY_MS);
 	const rows = await getDb().query<{ lick_id: string; due: unknown }>(
-		'SELECT lick_id, due FROM cards WHERE user_id = :id AND state = 2 AND id <> :cardId',
-		{ replacements: { id: learner.id, cardId }, type: QueryTypes.SELECT }
+		`SELECT lick_id, due FROM cards WHERE user_id = :id AND state = 2 AND due >= :from
+		 AND due < :to AND id <> :cardId`,
+		{ replacements: { id: learner.id, cardId, from, to }, type: QueryTypes.SELECT }
 	);
 	const dueByDay = new Map<string, number>();
 	const siblingDays = new Set<string>();
+	// Practice days by the quarter hour (every zone's offset is whole quarter hours, so no
+	// quarter straddles a day start): a handful of zone look-ups instead of one a card.
+	const byQuarter = new Map<number, string>();
 	for (const r of rows) {
-		const day = practiceDay(rowDate(r.due), learner.timeZone, learner.dayStartHour);
+		const due = rowDate(r.due);
+		const quarter = Math.floor(due.getTime() / 900_000);
+		let day = byQuarter.get(quarter);
+		if (day === undefined) {
+			day = practiceDay(due, learner.timeZone, learner.dayStartHour);
+			byQuarter.set(quarter, day);
+		}
 		dueByDay.set(day, (dueByDay.get(day) ?? 0) + 1);
 		if (r.lick_id === lickId) siblingDays.add(day);
 	}

@@ -1,0 +1,40 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { User } from '../../../src/lib/server/db/models/index';
+import { DEMO_LICKS } from '../../../src/lib/demo/licks';
+import { seedDemo } from '../../../src/lib/server/demo/seed';
+import { seedDemoPractice } from '../../../src/lib/server/demo/practice';
+import { buildToday } from '../../../src/lib/server/study/today';
+import { openTestWorld, type TestWorld } from '../support/world';
+
+let world: TestWorld;
+beforeAll(async () => {
+	world = await openTestWorld();
+	await seedDemo('demo-password-12');
+});
+afterAll(() => world.close());
+
+describe('demo practice', () => {
+	it.each([
+		['guitar@example.com', 'guitar'],
+		['alto@example.com', 'alto-sax'],
+		['trumpet@example.com', 'trumpet']
+	])(
+		'gives %s prompts for today right after seeding, written for the %s',
+		async (email, instrument) => {
+			const user = (await User.findOne({ where: { email } }))!;
+			const today = await buildToday({ id: user.id }, new Date());
+			expect(today.items.length).toBeGreaterThan(0);
+			expect(today.items.every((i) => i.isNew && i.instrument === instrument)).toBe(true);
+			// At the learner's own pace: five new cards a day by default.
+			expect(today.counts.new).toBe(Math.min(5, DEMO_LICKS.length));
+		}
+	);
+
+	it('adds nothing when seeded again', async () => {
+		const again = await seedDemoPractice('teacher@example.com', [
+			'guitar@example.com',
+			'alto@example.com'
+		]);
+		expect(again.map((r) => r.created)).toEqual([0, 0]);
+	});
+});

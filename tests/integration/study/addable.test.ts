@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { listAddable } from '../../../src/lib/server/study/addable';
 import { POST as cardsPost } from '../../../src/routes/api/cards/+server';
-import { openTestWorld, type TestWorld } from '../auth/setup';
+import { openTestWorld, type TestWorld } from '../support/world';
 import { call, makeClass, makeDeck, makeLick, makeUser } from './world';
 
 let world: TestWorld;

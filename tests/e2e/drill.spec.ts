@@ -84,6 +84,9 @@ for (const view of [
 			const { retrievability: _r0, version: _v0, ...original } = before;
 			expect(restored).toEqual(original);
 			await page.keyboard.press('4');
+			await expect
+				.poll(async () => (await cardOnServer(page, cardId!)).reviews.filter((r) => !r.undoneAt))
+				.toHaveLength(1);
 
 			// The network drops: two more grades wait on the device, in order.
 			await expect(page.getByTestId('outbox-status')).toHaveText('All grades saved.');

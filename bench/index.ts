@@ -1,9 +1,12 @@
 /**
- * `npm run bench`: the time to compute the full grid (12 keys × 8 chord qualities) of a four-bar
+ * `npm run bench`: the time to compute the full grid (12 keys × 9 chord qualities) of a four-bar
  * lick of 26 notes, against two yardsticks measured in the same run on the same machine:
  * - a bare loop of tonal `Note.transpose` over the same notes and intervals (96 × 26 calls);
  * - abcjs `strTranspose` for the same 96 variants, parsing once (it can only shift semitones:
  *   no re-mapping, no degrees, chord symbols from a fixed table).
+ * Then the grid route, `POST /api/transpose/grid`, called in-process for the same 12 × 9 grid
+ * (JSON in, validation, rate limit, bounded render, JSON out), against a bare `Response` of the
+ * same size as a floor.
  * Each figure is the median of several timed batches after a warm-up.
  */
 import { readFileSync } from 'node:fs';
@@ -13,13 +16,16 @@ import abcjs from 'abcjs';
 import { Interval, Note } from 'tonal';
 import { computeGrid, prepareLick, renderVariant } from '../src/lib/music/engine';
 import { MAJOR_KEY_SPELLINGS } from '../src/lib/music/key-data';
-import type { QualityId } from '../src/lib/music/types';
+import { QUALITY_IDS, type QualityId } from '../src/lib/music/types';
+import { POST as gridRoute } from '../src/routes/api/transpose/grid/+server';
+import { configureTransposeLimit } from '../src/lib/server/music/transpose-request';
+import { configureEngineBudget } from '../src/lib/server/music/render';
 
 const LICK = readFileSync(
 	fileURLToPath(new URL('../tests/fixtures/licks/bench-four-bars.abc', import.meta.url)),
 	'utf8'
 );
-const QUALITIES: QualityId[] = ['7', 'm7', 'maj7', 'm7b5', '7alt', 'dim7', '6', 'm6'];
+const QUALITIES: QualityId[] = [...QUALITY_IDS];
 const KEYS = MAJOR_KEY_SPELLINGS;
 
 /** Fastest batch per timed figure, for the report below (least disturbed by other processes). */
@@ -32,6 +38,25 @@ function measure(name: string, fn: () => unknown, reps: number, batches = 15): n
 	for (let b = 0; b < batches; b++) {
 		const t0 = performance.now();
 		for (let i = 0; i < reps; i++) fn();
+		times.push((performance.now() - t0) / reps);
+	}
+	times.sort((a, b) => a - b);
+	fastest.set(name, times[0]);
+	return times[Math.floor(times.length / 2)];
+}
+
+/** Like `measure`, for work that awaits. */
+async function measureAsync(
+	name: string,
+	fn: () => Promise<unknown>,
+	reps: number,
+	batches = 9
+): Promise<number> {
+	for (let i = 0; i < reps * 2; i++) await fn();
+	const times: number[] = [];
+	for (let b = 0; b < batches; b++) {
+		const t0 = performance.now();
+		for (let i = 0; i < reps; i++) await fn();
 		times.push((performance.now() - t0) / reps);
 	}
 	times.sort((a, b) => a - b);
@@ -100,19 +125,55 @@ const abcjsMs = measure(
 	5
 );
 
+// 4. The grid route in-process: a Request with the JSON body, the handler, the JSON answer read.
+configureTransposeLimit({ max: 1e9, windowMs: 60_000 });
+configureEngineBudget(1e9);
+type GridEvent = Parameters<typeof gridRoute>[0];
+const gridBody = JSON.stringify({ abc: LICK, keys: KEYS, qualities: QUALITIES });
+let answerBytes = 0;
+const routeMs = await measureAsync(
+	'route',
+	async () => {
+		const request = new Request('http://localhost/api/transpose/grid', {
+			method: 'POST',
+			headers: { 'content-type': 'application/json' },
+			body: gridBody
+		});
+		const event = { request, getClientAddress: () => '127.0.0.1' } as unknown as GridEvent;
+		const response = await gridRoute(event);
+		if (response.status !== 200) throw new Error(`grid route answered ${response.status}`);
+		answerBytes = (await response.text()).length;
+	},
+	10
+);
+// The floor: the same bytes through a bare Response, no engine.
+const sample = 'x'.repeat(answerBytes);
+const floorMs = await measureAsync(
+	'floor',
+	async () => {
+		sink += (await new Response(sample).text()).length;
+	},
+	10
+);
+
 const variants = KEYS.length * QUALITIES.length;
 const us = (ms: number) => `${(ms * 1000).toFixed(1)} µs`;
 const lines = [
 	`Lick: ${tune.notes.length} notes, four bars; grid of ${KEYS.length} keys × ${QUALITIES.length} qualities = ${variants} variants`,
 	'',
 	`Twelvefold grid (parse + re-map + transpose + emit + degrees): ${gridMs.toFixed(3)} ms  (${us(gridMs / variants)} a variant)`,
-	`  of which rendering the 96 variants of a prepared lick:       ${renderMs.toFixed(3)} ms  (${us(renderMs / variants)} a variant)`,
+	`  of which rendering the ${variants} variants of a prepared lick:      ${renderMs.toFixed(3)} ms  (${us(renderMs / variants)} a variant)`,
 	`tonal Note.transpose loop (${variants} × ${pitches.length} calls):              ${tonalMs.toFixed(3)} ms`,
 	`abcjs strTranspose, ${variants} variants, parsed once:                ${abcjsMs.toFixed(3)} ms  (${us(abcjsMs / variants)} a variant)`,
 	'',
 	`Ratio grid / tonal loop:  ${(gridMs / tonalMs).toFixed(2)}×   (aim ≤ 1.5×)`,
 	`Ratio grid / abcjs:       ${(gridMs / abcjsMs).toFixed(2)}×   (aim < 1×, per variant)`,
 	`Grid under 2 ms:          ${gridMs < 2 ? 'yes' : 'no'}`,
+	`Grid under the tonal loop: ${gridMs < tonalMs ? 'yes' : 'no'}`,
+	'',
+	`POST /api/transpose/grid, ${KEYS.length} keys × ${QUALITIES.length} qualities, in-process: ${routeMs.toFixed(3)} ms  (answer ${(answerBytes / 1024).toFixed(0)} KB)`,
+	`  floor, a bare Response of the same ${(answerBytes / 1024).toFixed(0)} KB:                 ${floorMs.toFixed(3)} ms`,
+	`  fastest batches: route ${fastest.get('route')?.toFixed(3)} ms, floor ${fastest.get('floor')?.toFixed(3)} ms`,
 	`Fastest batches: grid ${fastest.get('grid')?.toFixed(3)} ms, tonal ${fastest.get('tonal')?.toFixed(3)} ms, abcjs ${fastest.get('abcjs')?.toFixed(3)} ms (figures above are medians)`,
 	'',
 	// Shared machines make timings noisy; the load shows how noisy this run was.

@@ -1,5 +1,5 @@
 // `npm run admin -- promote EMAIL`: give an existing account the admin role.
-import { promoteToAdmin } from '../src/lib/server/auth/accounts';
+import { makeAdmin } from '../src/lib/server/auth/user';
 import { closeDb, getDb } from '../src/lib/server/db/index';
 import { migrate } from '../src/lib/server/db/migrate';
 
@@ -9,7 +9,7 @@ if (command !== 'promote' || !email) {
 	process.exit(2);
 }
 await migrate(getDb());
-const result = await promoteToAdmin(email);
+const result = await makeAdmin(email);
 await closeDb();
 if (!result.ok) {
 	console.error(result.message);

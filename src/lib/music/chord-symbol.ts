@@ -27,8 +27,11 @@ function accidental(text: string | undefined): string {
 	return text ?? '';
 }
 
-/** Rewrite the many ways of writing a type into one spelling the rules below read. */
-function normalise(suffix: string): string {
+/**
+ * Rewrite the many ways of writing a chord type into one spelling (`-7` → `m7`, `Δ` → `maj`).
+ * @example normaliseChordSuffix('MA7(#11)') // 'maj7#11'
+ */
+export function normaliseChordSuffix(suffix: string): string {
 	let s = suffix
 		.replace(/[\s(),]/g, '')
 		.replace(/♯/g, '#')
@@ -40,7 +43,7 @@ function normalise(suffix: string): string {
 		.replace(/^(min|mi|-)/, 'm')
 		.replace(/dim/g, 'o')
 		.replace(/aug/g, '+');
-	s = s.replace(/^m(M|maj)/, 'mmaj').replace(/7-5/g, '7b5');
+	s = s.replace(/^m(Maj|MAJ|maj|MA|Ma|ma|M)/, 'mmaj').replace(/7-5/g, '7b5');
 	return s.replace(/^majmaj/, 'maj');
 }
 
@@ -54,7 +57,7 @@ const ALTERED = /#5|\+|b5|#9|b13|alt/;
  * @example reduceQuality('-7') // 'm7'
  */
 export function reduceQuality(suffix: string): QualityId | null {
-	const s = normalise(suffix);
+	const s = normaliseChordSuffix(suffix);
 	if (/^m(7|9|11)?b5/.test(s)) return 'm7b5';
 	if (s.startsWith('mmaj')) return null;
 	if (/^m6/.test(s)) return 'm6';

@@ -10,7 +10,13 @@
  * - 4 semitones over a minor chord keeps the name 3 with the role 'chromatic'.
  * - A chord whose quality is unknown still gets names (as over a dominant) with role 'unknown'.
  */
-import { MusicInvariantError, parseNoteName, parsePitchName, type SpelledNote } from './pitch';
+import {
+	mod12,
+	MusicInvariantError,
+	parseNoteName,
+	parsePitchName,
+	type SpelledNote
+} from './pitch';
 import { BASE_LABELS, LABEL_NUMBER } from './qualities-data';
 import { qualityTable, type DegreeLabel, type DegreeRole } from './qualities';
 import {
@@ -32,8 +38,6 @@ export interface Degree {
 	number: number;
 	role: DegreeRole | 'unknown';
 }
-
-const mod12 = (n: number): number => ((n % 12) + 12) % 12;
 
 function makeDegrees(quality: QualityId | null): readonly Degree[] {
 	return Array.from({ length: 12 }, (_, s) => {

@@ -4,10 +4,12 @@
  * parsed note heads with small integer arithmetic and one pass of the emitter.
  */
 import { chordTemplate, emitAbc, transposeChordSymbol } from './abc/emit';
+import { speakWarnings, type Speaker } from './speech';
 import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
 import { degreeAt, readNote, type Degree, type DegreeLabel } from './degrees';
+import { chordShape, type ChordShape } from './chord-shape';
 import { remapNotes } from './remap';
 import { analyseNotes, type Device } from './analysis';
 import {
@@ -23,7 +25,9 @@ import {
 	chromaOf,
 	formatNoteName,
 	formatPitch,
+	LETTER_SEMITONES,
 	midiOf,
+	mod12,
 	MusicInvariantError,
 	parseNoteName,
 	parsePitchName,
@@ -32,15 +36,17 @@ import {
 	type SpelledPitch,
 	type Steps
 } from './pitch';
-import { simplifySpelling } from './spelling';
-import { planKeys, shiftPlan, type KeyPlan } from './transpose';
+import { simplifyNoteName, simplifySpelling } from './spelling';
+import { planKeys, shiftPlan, transposeNoteName, type KeyPlan } from './transpose';
+import { beatsPerBar } from './meter';
 import {
 	QUALITY_IDS,
 	type ChordContext,
 	type KeyName,
 	type MusicWarning,
 	type PitchName,
-	type QualityId
+	type QualityId,
+	type SoundingNote
 } from './types';
 
 export type { AbcError } from './abc/tokenize';
@@ -57,6 +63,10 @@ export interface VariantNote {
 	/** What that degree is over the chord's quality (a tension, a chord tone…); null without one. */
 	role: Degree['role'] | null;
 	chord: ChordContext | null;
+	/** The note as the learner's part writes it (the same as `pitch` at concert pitch). */
+	writtenPitch: PitchName;
+	/** The chord symbol in force as the learner's part writes it, or null. */
+	writtenChord: string | null;
 }
 
 export interface VariantOptions {
@@ -82,6 +92,18 @@ export interface VariantSuccess {
 	key: KeyName;
 	/** The K: value written in the output (for a transposing instrument, the written key). */
 	writtenKey: string;
+	/** Concert key tonic (the same as `key`, named for screens that show both). */
+	concertKey: KeyName;
+	/** Tonic of the key the learner's part is written in (`D` for B-flat trumpet in concert C). */
+	writtenTonic: KeyName;
+	/** Mode of the lick's key (`major`, `minor`, `dorian`…); the written key has the same mode. */
+	mode: string;
+	/** The lick's meter as its `M:` says (`4/4`, `6/8`, `C`), '' without one. */
+	meter: string;
+	/** Beats of a count-in bar for that meter (4/4 → 4, 6/8 → 2). */
+	beatsPerBar: number;
+	/** Quarter-note beats a minute from the lick's `Q:`, or null without one. */
+	tempo: number | null;
 	quality: QualityId | null;
 	instrument: string;
 	warnings: MusicWarning[];
@@ -131,6 +153,8 @@ interface QualityLayer {
 	/** Chord symbol texts (without quotes) and contexts, one per chord symbol of the tune. */
 	chordTexts: string[];
 	contexts: (ChordContext | null)[];
+	/** What each pitch class is over each chord symbol (degree, role, letter), or null. */
+	shapes: (ChordShape | null)[];
 	warnings: MusicWarning[];
 }
 
@@ -206,8 +230,19 @@ function prepareOne(abc: string): PrepareResult {
 		pitches: tune.heads.map((h) => h.pitch),
 		chordTexts: tune.chordSymbols.map((c) => tune.tokens[c.token].value as string),
 		contexts: tune.chordSymbols.map((c) => c.context),
+		shapes: tune.chordSymbols.map((c) => c.context && chordShape(c.context)),
 		warnings: []
 	};
+	// A quoted text that names no chord stays as written; say so rather than drop it silently.
+	const unread = tune.chordSymbols
+		.map((c) => tune.tokens[c.token].value as string)
+		.filter((text, i) => tune.chordSymbols[i].context === null && !/^\s*N\.?C\.?\s*$/i.test(text));
+	if (unread.length) {
+		tune.warnings.push({
+			code: 'unknown-chord',
+			message: `${unread.map((t) => `“${t}”`).join(', ')} ${unread.length === 1 ? 'is not a chord symbol we read: it is' : 'are not chord symbols we read: they are'} kept as written, in every key, and the notes under ${unread.length === 1 ? 'it get' : 'them get'} no degrees.`
+		});
+	}
 	const chordOfNote = tune.notes.map((n) =>
 		n.chord ? tune.chordSymbols.findIndex((c) => c.context === n.chord) : -1
 	);
@@ -298,7 +333,8 @@ function layerFor(lick: PreparedLick, quality: QualityId | null): QualityLayer {
 			contexts.push(c);
 		}
 	});
-	const layer = { quality, pitches, chordTexts, contexts, warnings: remapped.warnings };
+	const shapes = contexts.map((c) => c && chordShape(c));
+	const layer = { quality, pitches, chordTexts, contexts, shapes, warnings: remapped.warnings };
 	lick.layers.set(quality, layer);
 	return layer;
 }
@@ -309,11 +345,12 @@ function moveChords(
 	layer: QualityLayer,
 	by: Steps,
 	keys: readonly KeySignature[]
-): { texts: string[]; contexts: (ChordContext | null)[]; rootChromas: number[] } {
+): MovedChords {
 	const n = layer.chordTexts.length;
 	const texts: string[] = new Array(n);
 	const contexts: (ChordContext | null)[] = new Array(n);
 	const rootChromas: number[] = new Array(n).fill(0);
+	const roots: (SpelledNote | null)[] = new Array(n).fill(null);
 	let keyIndex = 0;
 	const moved: SpelledNote[] = [];
 	for (let i = 0; i < n; i++) {
@@ -329,7 +366,8 @@ function moveChords(
 		const text = transposeChordSymbol(layer.chordTexts[i], by, keys[keyIndex].accidentals, moved);
 		const template = chordTemplate(layer.chordTexts[i]);
 		texts[i] = text;
-		rootChromas[i] = moved.length ? chromaOf(moved[0]) : chromaOf(readNote(c.root));
+		roots[i] = moved.length ? moved[0] : readNote(c.root);
+		rootChromas[i] = chromaOf(roots[i] as SpelledNote);
 		contexts[i] = {
 			symbol: text,
 			root: moved.length ? formatNoteName(moved[0]) : c.root,
@@ -337,7 +375,51 @@ function moveChords(
 			bass: c.bass && template.bass >= 0 ? formatNoteName(moved[template.bass]) : c.bass
 		};
 	}
-	return { texts, contexts, rootChromas };
+	return { texts, contexts, rootChromas, roots };
+}
+
+/** Chord symbols of a variant: texts as written, contexts, and their spelled roots. */
+interface MovedChords {
+	texts: string[];
+	contexts: (ChordContext | null)[];
+	rootChromas: number[];
+	roots: (SpelledNote | null)[];
+}
+
+/**
+ * Write every chord tone and tension on the letter its interval gives above the root of the
+ * chord in force, whatever the key signature (common practice: the third of G#7 is B#, not C).
+ * A tension whose letter would need a double sharp or flat keeps the key's spelling; chromatic
+ * notes keep it too. Grace notes keep the spelling they moved with.
+ */
+function spellOnChords(
+	lick: PreparedLick,
+	layer: QualityLayer,
+	pitches: SpelledPitch[],
+	chords: MovedChords
+): void {
+	const { heads } = lick.tune;
+	for (let i = 0; i < heads.length; i++) {
+		const h = heads[i];
+		if (h.grace) continue;
+		const ci = lick.chordOfNote[h.sounding];
+		if (ci < 0) continue;
+		const shape = layer.shapes[ci];
+		const root = chords.roots[ci];
+		if (!shape || !root) continue;
+		const p = pitches[i];
+		const midi = midiOf(p);
+		const s = mod12(midi - chords.rootChromas[ci]);
+		const iv = shape.spelling[s];
+		if (!iv) continue;
+		const letter = (((root.letter + iv.steps) % 7) + 7) % 7;
+		if (letter === p.letter) continue;
+		const octave = Math.floor((midi - LETTER_SEMITONES[letter] + 6) / 12) - 1;
+		const alt = midi - (12 * (octave + 1) + LETTER_SEMITONES[letter]);
+		if (alt > 2 || alt < -2 || ((alt === 2 || alt === -2) && shape.roles[s] !== 'chord-tone'))
+			continue;
+		pitches[i] = { letter, alt, octave };
+	}
 }
 
 /** Pitches of a layer moved by an interval and spelled for the key in force. */
@@ -404,6 +486,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 
 	const concertPitches = movePitches(tune, layer.pitches, concert.interval, concert.keys);
 	const concertChords = moveChords(tune, layer, concert.interval, concert.keys);
+	spellOnChords(lick, layer, concertPitches, concertChords);
 	const {
 		plan: written,
 		fitWarnings,
@@ -415,6 +498,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			: movePitches(tune, layer.pitches, written.interval, written.keys);
 	const writtenChords =
 		written === concert ? concertChords : moveChords(tune, layer, written.interval, written.keys);
+	if (written !== concert) spellOnChords(lick, layer, writtenPitches, writtenChords);
 
 	const abc = emitAbc(tune, {
 		keys: written.keys,
@@ -429,6 +513,8 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 			: concertPitches.map((p) => ({ ...p, octave: p.octave + octaveShift }));
 	const notes: VariantNote[] = new Array(tune.notes.length);
 	const { heads } = tune;
+	// What the learner reads, for sentences about the line: the written part when it differs.
+	const shown: SoundingNote[] | null = written === concert ? null : new Array(tune.notes.length);
 	for (let i = 0; i < heads.length; i++) {
 		const h = heads[i];
 		if (h.grace || h.continuation) continue;
@@ -438,40 +524,100 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		// The chord in force is the same symbol as in the source, now moved.
 		const ci = lick.chordOfNote[h.sounding];
 		const chord = ci < 0 ? null : concertChords.contexts[ci];
-		const degree = chord ? degreeAt(midi - concertChords.rootChromas[ci], chord.quality) : null;
+		let label: DegreeLabel | null = null;
+		let role: VariantNote['role'] = null;
+		if (chord) {
+			const s = mod12(midi - concertChords.rootChromas[ci]);
+			const shape = layer.shapes[ci];
+			if (shape?.labels[s]) {
+				label = shape.labels[s];
+				role = shape.roles[s];
+			} else {
+				const degree = degreeAt(s, chord.quality);
+				label = degree.label;
+				role = degree.role;
+			}
+		}
 		notes[h.sounding] = {
 			index: src.index,
 			pitch: formatPitch(p),
 			midi,
 			start: src.start,
 			duration: src.duration,
-			degree: degree?.label ?? null,
-			role: degree?.role ?? null,
-			chord
+			degree: label,
+			role,
+			chord,
+			writtenPitch: formatPitch(writtenPitches[i]),
+			writtenChord: ci < 0 ? null : writtenChords.contexts[ci] ? writtenChords.texts[ci] : null
 		};
+		if (shown) {
+			const wp = writtenPitches[i];
+			shown[h.sounding] = {
+				index: src.index,
+				pitch: formatPitch(wp),
+				midi: midiOf(wp),
+				start: src.start,
+				duration: src.duration,
+				chord: ci < 0 ? null : writtenChords.contexts[ci]
+			};
+		}
 	}
 	const firstKey = concert.keys[0];
-	const analysis = options.analyse ? analyseSafely(notes) : null;
+	const analysis = options.analyse ? analyseSafely(shown ?? notes) : null;
+	const shownKey = written.keys[0];
+	const speaker: Speaker = {
+		chord: (symbol) => transposeChordSymbol(symbol, written.interval, shownKey.accidentals),
+		source: (_, pitch) => {
+			const p = parsePitchName(pitch);
+			if (!p) return pitch;
+			return formatPitch(
+				simplifySpelling(transposePitch(p, written.interval), shownKey.accidentals)
+			);
+		},
+		output: (n, pitch) => notes[n]?.writtenPitch ?? pitch
+	};
 	const devices = analysis?.devices;
+	// K:none has no tonic: the key is the one asked for, if any.
+	const key = firstKey.none
+		? target
+			? formatNoteName(target)
+			: 'none'
+		: formatNoteName(firstKey.tonic);
+	const writtenTonic = shownKey.none
+		? written === concert
+			? key
+			: key === 'none'
+				? 'none'
+				: formatNoteName(
+						simplifyNoteName(
+							transposeNoteName(readNote(key), instrumentSteps(written, concert)),
+							[0, 0, 0, 0, 0, 0, 0]
+						)
+					)
+		: formatNoteName(shownKey.tonic);
 	return {
 		ok: true,
 		abc,
-		// K:none has no tonic: the key is the one asked for, if any.
-		key: firstKey.none
-			? target
-				? formatNoteName(target)
-				: 'none'
-			: formatNoteName(firstKey.tonic),
+		key,
 		writtenKey: formatKeyField(written.keys[0]),
+		concertKey: key,
+		writtenTonic,
+		mode: firstKey.mode,
+		meter: tune.meter,
+		beatsPerBar: beatsPerBar(tune.meter),
+		tempo: tune.tempo,
 		quality: layer.quality,
 		instrument,
-		warnings: collectWarnings(
-			tune.warnings,
-			layer.warnings,
-			concert.warnings,
-			written === concert ? NONE : written.warnings,
-			fitWarnings,
-			analysis?.warning ? [analysis.warning] : NONE
+		warnings: speakWarnings(
+			collectWarnings(
+				tune.warnings,
+				layer.warnings,
+				concert.warnings,
+				written === concert ? NONE : written.warnings,
+				fitWarnings,
+				analysis?.warning ? [analysis.warning] : NONE
+			),
+			speaker
 		),
 		notes,
 		...(devices ? { devices } : {}),
@@ -509,7 +655,10 @@ function renderHandWritten(
  * Devices of a line. Analysis is a bonus on top of the variant: should it fail on an odd line
  * (for example notes before the first chord symbol), the variant still stands, with a warning.
  */
-function analyseSafely(notes: VariantNote[]): { devices?: Device[]; warning?: MusicWarning } {
+function analyseSafely(notes: readonly SoundingNote[]): {
+	devices?: Device[];
+	warning?: MusicWarning;
+} {
 	try {
 		return { devices: analyseNotes(notes).devices };
 	} catch (e) {
@@ -520,6 +669,14 @@ function analyseSafely(notes: VariantNote[]): { devices?: Device[]; warning?: Mu
 			}
 		};
 	}
+}
+
+/** The interval from the concert part to the written one. */
+function instrumentSteps(written: KeyPlan, concert: KeyPlan): Steps {
+	return {
+		steps: written.interval.steps - concert.interval.steps,
+		semitones: written.interval.semitones - concert.interval.semitones
+	};
 }
 
 /** The written key plan for an instrument: its transposition plus the octave that fits its range. */
@@ -543,7 +700,10 @@ function writtenPlan(
 		steps: row.steps + 7 * fit.octaveShift,
 		semitones: row.semitones + 12 * fit.octaveShift
 	};
-	const shifted = shiftPlan(keys, concert, by, tritone);
+	// An instrument that reads at concert pitch or octaves from it keeps the concert key's
+	// spelling; a transposing one gets the spelling its written key takes by the tritone setting.
+	const octaves = by.semitones % 12 === 0 && by.steps % 7 === 0;
+	const shifted = shiftPlan(keys, concert, by, tritone, octaves ? 'keep' : 'setting');
 	const clefKeys = shifted.keys.map((k) => withClef(k, row.clef));
 	return {
 		plan: { ...shifted, keys: clefKeys },

@@ -32,6 +32,10 @@ export {
 } from './keys';
 export { parseChordSymbol, formatChordSymbol } from './chord-symbol';
 export { isQualityId } from './qualities';
+export { QUALITY_LABELS } from './qualities-data';
+export { beatsPerBar, readTempo } from './meter';
+export { wrapBars } from './abc/layout';
+export { GUITAR_OPEN_STRINGS, GUITAR_TABLATURE, fretPitch } from './tablature';
 export { INSTRUMENT_IDS, INSTRUMENT_ROWS, isInstrumentId, type InstrumentId } from './instruments';
 export {
 	QUALITY_IDS,

@@ -77,9 +77,10 @@ export interface RangeFit {
 }
 
 /**
- * The octave shift that puts a line inside an instrument's written range: among the shifts that
- * fit, the one whose middle lies nearest the middle of the range, the smaller shift on a tie.
- * When none fits, the shift that leaves the fewest notes outside, with a warning naming them.
+ * The octave shift that puts a line inside an instrument's written range. A lick sounds where it
+ * was written unless the range forces a move: among the shifts that leave the fewest notes
+ * outside, the smallest, then the one whose middle lies nearest the middle of the range. A move
+ * comes with a warning that says so; when no shift fits, the warning names the notes outside.
  * @example fitToRange([48, 50, 52], 'trumpet') // { octaveShift: 1, warnings: [] }
  */
 export function fitToRange(concertMidis: readonly number[], id: InstrumentId): RangeFit {
@@ -100,23 +101,35 @@ export function fitToRange(concertMidis: readonly number[], id: InstrumentId): R
 		const better =
 			!best ||
 			outside < best.outside ||
-			(outside === best.outside && distance < best.distance) ||
+			(outside === best.outside && Math.abs(shift) < Math.abs(best.shift)) ||
 			(outside === best.outside &&
-				distance === best.distance &&
-				Math.abs(shift) < Math.abs(best.shift));
+				Math.abs(shift) === Math.abs(best.shift) &&
+				distance < best.distance);
 		if (better) best = { shift, outside, distance };
 	}
 	const { shift } = best!;
-	if (best!.outside === 0) return { octaveShift: shift, warnings: [] };
+	const range = `${midiName(instrument.low)}–${midiName(instrument.high)}`;
+	const name = instrument.label
+		.replace(/ \(.*\)$/, '')
+		.replace(/^(\w)(?!-)/, (c) => c.toLowerCase());
+	if (best!.outside === 0) {
+		if (shift === 0) return { octaveShift: 0, warnings: [] };
+		const by = Math.abs(shift) === 1 ? 'an octave' : `${Math.abs(shift)} octaves`;
+		return {
+			octaveShift: shift,
+			warnings: [
+				{
+					code: 'octave-moved',
+					message: `Written ${by} ${shift > 0 ? 'higher' : 'lower'} than the lick sounds, to fit the ${name}'s written range ${range}.`
+				}
+			]
+		};
+	}
 	const outsideIdx = written
 		.map((m, i) => [m + 12 * shift, i] as const)
 		.filter(([m]) => m < instrument.low || m > instrument.high);
 	const span = high - low;
 	const room = instrument.high - instrument.low;
-	const range = `${midiName(instrument.low)}–${midiName(instrument.high)}`;
-	const name = instrument.label
-		.replace(/ \(.*\)$/, '')
-		.replace(/^(\w)(?!-)/, (c) => c.toLowerCase());
 	const why =
 		span > room
 			? `The line spans ${span} semitones, more than the ${room} of the ${name}'s written range ${range}`

@@ -41,6 +41,12 @@ export class MusicInvariantError extends Error {
 const mod = (n: number, m: number): number => ((n % m) + m) % m;
 
 /**
+ * Pitch class of a semitone count: the one home of this arithmetic for the engine.
+ * @example mod12(-1) // 11
+ */
+export const mod12 = (n: number): number => ((n % 12) + 12) % 12;
+
+/**
  * MIDI number of a spelled pitch.
  * @example midiOf({ letter: 0, alt: 0, octave: 4 }) // 60
  */

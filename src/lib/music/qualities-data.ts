@@ -237,3 +237,16 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 		avoid: ['3M']
 	}
 ];
+
+/** How a picker names each quality: the word a teacher says, then the symbol. */
+export const QUALITY_LABELS: Readonly<Record<QualityId, string>> = {
+	'7': 'Dominant (7)',
+	m7: 'Minor 7th (m7)',
+	maj7: 'Major 7th (maj7)',
+	m7b5: 'Half-diminished (m7♭5)',
+	'7alt': 'Altered (7alt)',
+	dim7: 'Diminished (dim7)',
+	'6': 'Major 6th (6)',
+	m6: 'Minor 6th (m6)',
+	'7sus4': 'Suspended (7sus4)'
+};

@@ -3,7 +3,14 @@
  * needs (label, role, spelling, degree number) is computed once here from `qualities-data.ts`,
  * so that labelling and re-mapping a note is a couple of array reads.
  */
-import { LETTER_SEMITONES, LETTERS, MusicInvariantError, parseNoteName, type Steps } from './pitch';
+import {
+	LETTER_SEMITONES,
+	LETTERS,
+	mod12,
+	MusicInvariantError,
+	parseNoteName,
+	type Steps
+} from './pitch';
 import {
 	BASE_LABELS,
 	LABEL_NUMBER,
@@ -59,8 +66,6 @@ export function parseInterval(name: string): Steps {
 	const sign = m[1] ? -1 : 1;
 	return { steps: sign * number, semitones: sign * (base + diff) };
 }
-
-const mod12 = (n: number): number => ((n % 12) + 12) % 12;
 
 /** Spelling of notes outside the chord scale: flat side going down, sharp side going up. */
 export const DESCENDING_SPELLING: readonly Steps[] = [

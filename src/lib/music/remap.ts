@@ -30,6 +30,7 @@
 import {
 	LETTER_SEMITONES,
 	LETTERS,
+	mod12,
 	MusicInvariantError,
 	type SpelledNote,
 	type Steps
@@ -42,6 +43,7 @@ import {
 	qualityTable,
 	type QualityTable
 } from './qualities';
+import { chordMark, outputMark, plainText, sourceMark } from './speech';
 import { QUALITY_IDS } from './types';
 import type { MusicWarning, NoteName, PitchName, QualityId, SoundingNote } from './types';
 
@@ -58,7 +60,6 @@ export interface RemapResult {
 	warnings: MusicWarning[];
 }
 
-const mod12 = (n: number): number => ((n % 12) + 12) % 12;
 /** The smallest move between two semitone offsets, in -5..6. */
 const smallestMove = (from: number, to: number): number => {
 	const d = mod12(to - from);
@@ -149,7 +150,16 @@ function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
 }
 
 function symbolOf(root: SpelledNote, quality: QualityId): string {
-	return NAMES[root.letter][root.alt + 2] + quality;
+	return chordMark(NAMES[root.letter][root.alt + 2] + quality);
+}
+
+/** Marked names for warning templates: the source pitch of note i, its re-mapped pitch. */
+const src = (job: Job, i: number): string => sourceMark(job.notes[i].index, job.notes[i].pitch);
+const out = (job: Job, i: number): string => outputMark(job.notes[i].index, job.pitches[i]);
+
+/** A warning from a marked template: plain message for the lick as written, template for variants. */
+function marked(code: string, template: string, notes: number[]): MusicWarning {
+	return { code, message: plainText(template), template, notes };
 }
 
 const INTERVAL_NAMES = ['unison', 'half step', 'whole step', 'minor third', 'major third'];
@@ -284,15 +294,15 @@ function mapRuns(job: Job): void {
 }
 
 function fillWarning(job: Job, a: number, b: number, span: number): MusicWarning {
-	const { notes, roots, semis, pitches, F, T } = job;
+	const { notes, roots, semis, F, T } = job;
 	const d = Math.sign(notes[b].midi - notes[a].midi);
 	const passing = b - a - 1;
 	const room = Math.max(span - 1, 0);
 	const source = Math.abs(notes[b].midi - notes[a].midi);
 	const fromChord = symbolOf(roots[a]!, job.from);
 	const toChord = symbolOf(roots[a]!, job.to);
-	const ends = `the ${F.labels[semis[a]]} (${notes[a].pitch}) ${d < 0 ? 'down' : 'up'} to the ${F.labels[semis[b]]} (${notes[b].pitch})`;
-	const now = `${INTERVAL_NAMES[span] ?? `${span} semitones`} (${pitches[a]} to ${pitches[b]})`;
+	const ends = `the ${F.labels[semis[a]]} (${src(job, a)}) ${d < 0 ? 'down' : 'up'} to the ${F.labels[semis[b]]} (${src(job, b)})`;
+	const now = `${INTERVAL_NAMES[span] ?? `${span} semitones`} (${out(job, a)} to ${out(job, b)})`;
 	const matching = matchingSpans(T, source, d)
 		.map(([x, y]) => `${T.labels[x]} → ${T.labels[y]}`)
 		.join(', ');
@@ -301,16 +311,16 @@ function fillWarning(job: Job, a: number, b: number, span: number): MusicWarning
 		: ' Write this version by hand if it matters.';
 	const notesConcerned = range(notes, a, b);
 	if (passing > room)
-		return {
-			code: 'fill-too-long',
-			message: `The chromatic fill from ${ends} over ${fromChord} spans a ${INTERVAL_NAMES[source] ?? `${source} semitones`}; over ${toChord} the same chord tones are a ${now} apart, so ${passing - room === 1 ? 'one passing tone is' : `${passing - room} passing tones are`} too many and a pitch repeats.${hint}`,
-			notes: notesConcerned
-		};
-	return {
-		code: 'fill-gap',
-		message: `The chromatic fill from ${ends} over ${fromChord} becomes a ${now} over ${toChord}: there is room for ${room - passing === 1 ? 'one more passing tone' : `${room - passing} more passing tones`}, so the line now skips a half step.${hint}`,
-		notes: notesConcerned
-	};
+		return marked(
+			'fill-too-long',
+			`The chromatic fill from ${ends} over ${fromChord} spans a ${INTERVAL_NAMES[source] ?? `${source} semitones`}; over ${toChord} the same chord tones are a ${now} apart, so ${passing - room === 1 ? 'one passing tone is' : `${passing - room} passing tones are`} too many and a pitch repeats.${hint}`,
+			notesConcerned
+		);
+	return marked(
+		'fill-gap',
+		`The chromatic fill from ${ends} over ${fromChord} becomes a ${now} over ${toChord}: there is room for ${room - passing === 1 ? 'one more passing tone' : `${room - passing} more passing tones`}, so the line now skips a half step.${hint}`,
+		notesConcerned
+	);
 }
 
 function collides(job: Job, i: number, midi: number, j: number): boolean {
@@ -327,7 +337,7 @@ const landedAt = (job: Job, i: number): number =>
 	mod12(job.semis[i] + job.midis[i] - job.notes[i].midi);
 
 function finalWarnings(job: Job, kept: number[], homeName: NoteName): void {
-	const { notes, roots, pitches, midis, T, warnings } = job;
+	const { notes, roots, midis, T, warnings } = job;
 	const n = notes.length;
 	for (const [label, list] of job.ambiguous ?? []) {
 		const i = list[0];
@@ -338,39 +348,46 @@ function finalWarnings(job: Job, kept: number[], homeName: NoteName): void {
 			.filter((c) => c !== t)
 			.map((c) => `the ${T.labels[c]}`)
 			.join(' or ');
-		warnings.push({
-			code: 'ambiguous',
-			message:
+		warnings.push(
+			marked(
+				'ambiguous',
 				`The ${label} of ${symbolOf(roots[i]!, job.from)} has no single place over ` +
-				`${symbolOf(roots[i]!, job.to)}: written as the ${T.labels[t]} (${pitches[i]}); ` +
-				(move.candidates.length > 1 ? `${others} would also do` : (move.reason ?? '')) +
-				'.',
-			notes: list.map((k) => notes[k].index)
-		});
+					`${symbolOf(roots[i]!, job.to)}: written as the ${T.labels[t]} (${out(job, i)}); ` +
+					(move.candidates.length > 1 ? `${others} would also do` : (move.reason ?? '')) +
+					'.',
+				list.map((k) => notes[k].index)
+			)
+		);
 	}
 	const avoid = job.avoid;
 	if (avoid)
-		warnings.push({
-			code: 'avoid-note',
-			message: `${avoid.map((i) => `${pitches[i]} (the ${T.labels[landedAt(job, i)]})`).join(', ')} ${avoid.length === 1 ? 'is an avoid note' : 'are avoid notes'} over ${symbolOf(roots[avoid[0]]!, job.to)} and ${avoid.length === 1 ? 'lasts' : 'last'} a quarter note or more.`,
-			notes: avoid.map((i) => notes[i].index)
-		});
+		warnings.push(
+			marked(
+				'avoid-note',
+				`${avoid.map((i) => `${out(job, i)} (the ${T.labels[landedAt(job, i)]})`).join(', ')} ${avoid.length === 1 ? 'is an avoid note' : 'are avoid notes'} over ${symbolOf(roots[avoid[0]]!, job.to)} and ${avoid.length === 1 ? 'lasts' : 'last'} a quarter note or more.`,
+				avoid.map((i) => notes[i].index)
+			)
+		);
 	for (let i = 0; i + 1 < n; i++) {
 		if (midis[i] === midis[i + 1] && notes[i].midi !== notes[i + 1].midi) {
 			const root = roots[i] ?? readNote(homeName);
-			warnings.push({
-				code: 'collision',
-				message: `Two notes that differ over ${symbolOf(root, job.from)} (${notes[i].pitch}, ${notes[i + 1].pitch}) become the same pitch ${pitches[i]} over ${symbolOf(root, job.to)}.`,
-				notes: [notes[i].index, notes[i + 1].index]
-			});
+			warnings.push(
+				marked(
+					'collision',
+					`Two notes that differ over ${symbolOf(root, job.from)} (${src(job, i)}, ${src(job, i + 1)}) become the same pitch ${out(job, i)} over ${symbolOf(root, job.to)}.`,
+					[notes[i].index, notes[i + 1].index]
+				)
+			);
 		}
 	}
 	if (kept.length)
-		warnings.push({
-			code: 'other-chord-kept',
-			message: `${kept.length === 1 ? 'One note sounds' : `${kept.length} notes sound`} over another chord of the progression (${[...new Set(kept.map((i) => notes[i].chord!.symbol))].join(', ')}) and ${kept.length === 1 ? 'is' : 'are'} left as written.`,
-			notes: kept.map((i) => notes[i].index)
-		});
+		warnings.push(
+			marked(
+				'other-chord-kept',
+				`${kept.length === 1 ? 'One note sounds' : `${kept.length} notes sound`} over another chord of the progression (${[...new Set(kept.map((i) => chordMark(notes[i].chord!.symbol)))].join(', ')}) and ${kept.length === 1 ? 'is' : 'are'} left as written.`,
+				kept.map((i) => notes[i].index)
+			)
+		);
 }
 
 /**

@@ -52,8 +52,9 @@ export function respellKey(
  * Cost of writing a letter with an alteration in a key: an explicit accidental counts 1, E#, B#,
  * Cb and Fb outside the signature 1 more (they read as a different letter to most eyes), a
  * double accidental 2 more.
+ * @example spellingCost(2, 1, keyOf('C').accidentals) // 2 (E#)
  */
-function spellingCost(letter: number, alt: number, accidentals: readonly number[]): number {
+export function spellingCost(letter: number, alt: number, accidentals: readonly number[]): number {
 	let cost = 0;
 	if (alt !== accidentals[letter]) {
 		cost += 1;
@@ -64,6 +65,8 @@ function spellingCost(letter: number, alt: number, accidentals: readonly number[
 			cost += 1;
 	}
 	if (alt >= 2 || alt <= -2) cost += 2;
+	// abc has no triple sharp or flat (abc 2.1 §4.2): such a spelling must always give way.
+	if (alt > 2 || alt < -2) cost += 100;
 	return cost;
 }
 
@@ -82,7 +85,11 @@ export function simplifySpelling(p: SpelledPitch, accidentals: readonly number[]
 	let bestAlt = 0;
 	let bestOctave = 0;
 	const midi = 12 * (p.octave + 1) + LETTER_SEMITONES[p.letter] + p.alt;
-	for (let d = -1; d <= 1; d += 2) {
+	// Neighbouring letters first; two letters away only rescues a spelling abc cannot write
+	// (a double flat moved by a diminished second can need three flats: C-triple-flat is written A).
+	const reach = p.alt > 2 || p.alt < -2 ? 2 : 1;
+	for (let d = -reach; d <= reach; d++) {
+		if (d === 0) continue;
 		const abs = p.octave * 7 + p.letter + d;
 		const letter = ((abs % 7) + 7) % 7;
 		const octave = Math.floor(abs / 7);

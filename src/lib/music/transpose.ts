@@ -151,13 +151,15 @@ export function shiftPlan(
 	keys: readonly KeySignature[],
 	plan: KeyPlan,
 	by: Steps,
-	tritone: TritoneSpelling = 'Gb'
+	tritone: TritoneSpelling = 'Gb',
+	ties: 'keep' | 'setting' = 'setting'
 ): KeyPlan {
 	if (by.steps === 0 && by.semitones === 0) return plan;
 	const interval = addSteps(plan.interval, by);
 	const warnings: MusicWarning[] = [];
-	const out = keys.map((key) => {
-		const moved = transposeKey(key, interval, tritone, 'setting');
+	const out = keys.map((key, i) => {
+		// An octave move keeps the spelling the concert key was given (F# asked, F# written).
+		const moved = transposeKey(key, interval, tritone, i === 0 ? ties : 'setting');
 		if (moved.warning && !warnings.some((w) => w.message === moved.warning?.message)) {
 			warnings.push(moved.warning);
 		}

@@ -49,4 +49,9 @@ export interface MusicWarning {
 	message: string;
 	/** Note indices concerned, when any. */
 	notes?: number[];
+	/**
+	 * The message with its chord and note names marked (`speech.ts`), so that each variant can
+	 * speak of its own names; the engine fills it in and never sends it on.
+	 */
+	template?: string;
 }

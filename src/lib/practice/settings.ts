@@ -1,3 +1,5 @@
+import { z } from 'zod';
+import { parseFirst } from '../forms/parse';
 import { isInstrumentId } from '../music/instruments';
 
 /**
@@ -118,35 +120,33 @@ export const SETTINGS_LIMITS = Object.freeze({
 	newPerDay: { min: 1, max: 20 }
 });
 
-/** The loose form (or JSON) input: every field as sent, usually a string. */
-export type SettingsInput = Partial<Record<keyof UserSettings, unknown>>;
+/** Messages of the settings form, one per field. */
+const MESSAGES = {
+	instrument: 'Choose one of the instruments in the list.',
+	dailyMinutes: `Enter a whole number of minutes from ${SETTINGS_LIMITS.dailyMinutes.min} to ${SETTINGS_LIMITS.dailyMinutes.max}.`,
+	keyOrder: 'Choose how the keys are picked: weakest first or round the cycle.',
+	desiredRetention: `Choose how much to remember: a share from ${SETTINGS_LIMITS.desiredRetention.min.toFixed(2)} to ${SETTINGS_LIMITS.desiredRetention.max.toFixed(2)}.`,
+	timezone:
+		'Enter a time zone by its region and city name, such as Europe/Berlin or America/Chicago.',
+	digestHour: 'Choose an hour of the day from 0 to 23.',
+	digestEnabled: 'The daily reminder is either on or off.',
+	dayStartHour: 'Choose the hour your practice day starts, from 0 to 23.',
+	newPerDay: `Enter a whole number of new licks a day from ${SETTINGS_LIMITS.newPerDay.min} to ${SETTINGS_LIMITS.newPerDay.max}.`
+} as const satisfies Record<keyof UserSettings, string>;
 
-export type SettingsInputResult =
-	{ ok: true; settings: UserSettings } | { ok: false; field: keyof UserSettings; message: string };
-
-const INTEGER_TEXT = /^\s*\d{1,4}\s*$/;
-const DECIMAL_TEXT = /^\s*\d{0,2}(\.\d{1,6})?\s*$/;
-
-/** A whole number from a form string (or a number), or null when it is none. */
-function readInteger(value: unknown): number | null {
-	if (typeof value === 'number') return Number.isInteger(value) ? value : null;
-	if (typeof value !== 'string' || !INTEGER_TEXT.test(value)) return null;
-	return Number(value);
-}
-
-function readDecimal(value: unknown): number | null {
-	if (typeof value === 'number') return Number.isFinite(value) ? value : null;
-	if (typeof value !== 'string' || !DECIMAL_TEXT.test(value)) return null;
-	const text = value.trim();
-	return text === '' || text === '.' ? null : Number(text);
-}
+/** A whole number within limits, with one message for every way of missing them. */
+const wholeNumber = (limits: { min: number; max: number }, message: string) =>
+	z.number({ error: message }).int(message).min(limits.min, message).max(limits.max, message);
 
 // IANA names and the plain UTC alias; Intl also takes offsets such as '+01:00' on newer engines,
 // which are not zones (they ignore summer time), so the shape is checked too.
 const ZONE_SHAPE = /^(UTC|[A-Za-z][A-Za-z0-9_+-]*(\/[A-Za-z0-9_+-]+){0,2})$/;
 
-/** The canonical spelling of an IANA zone ('europe/berlin' → 'Europe/Berlin'), or null. */
-function readTimezone(value: unknown): string | null {
+/**
+ * The canonical spelling of an IANA zone, or null when it is none.
+ * @example canonicalZone(' europe/berlin ') // → 'Europe/Berlin'
+ */
+export function canonicalZone(value: unknown): string | null {
 	if (typeof value !== 'string') return null;
 	const zone = value.trim();
 	if (zone.length === 0 || zone.length > 64 || !ZONE_SHAPE.test(zone)) return null;
@@ -157,96 +157,78 @@ function readTimezone(value: unknown): string | null {
 	}
 }
 
+/**
+ * The practice settings form: one schema for the page, its action and `readSettingsInput`.
+ * Field order is the form's, so the first problem reported is the first one on screen.
+ */
+export const settingsSchema = z.object({
+	instrument: z.string({ error: MESSAGES.instrument }).refine(isInstrumentId, MESSAGES.instrument),
+	dailyMinutes: wholeNumber(SETTINGS_LIMITS.dailyMinutes, MESSAGES.dailyMinutes),
+	keyOrder: z.enum(KEY_ORDERS, { error: MESSAGES.keyOrder }),
+	desiredRetention: z
+		.number({ error: MESSAGES.desiredRetention })
+		.min(SETTINGS_LIMITS.desiredRetention.min, MESSAGES.desiredRetention)
+		.max(SETTINGS_LIMITS.desiredRetention.max, MESSAGES.desiredRetention),
+	timezone: z
+		.string({ error: MESSAGES.timezone })
+		.refine((zone) => canonicalZone(zone) !== null, MESSAGES.timezone),
+	digestHour: wholeNumber(SETTINGS_LIMITS.digestHour, MESSAGES.digestHour),
+	digestEnabled: z.boolean({ error: MESSAGES.digestEnabled }),
+	dayStartHour: wholeNumber(SETTINGS_LIMITS.dayStartHour, MESSAGES.dayStartHour),
+	newPerDay: wholeNumber(SETTINGS_LIMITS.newPerDay, MESSAGES.newPerDay)
+}) satisfies z.ZodType<UserSettings>;
+
+export type SettingsInputResult =
+	{ ok: true; settings: UserSettings } | { ok: false; field: keyof UserSettings; message: string };
+
+const INTEGER_TEXT = /^\s*\d{1,4}\s*$/;
+const DECIMAL_TEXT = /^\s*\d{0,2}(\.\d{1,6})?\s*$/;
+
+/** A whole number from a form string (or a number); anything else passes on for the schema to refuse. */
+function fromIntegerText(value: unknown): unknown {
+	if (typeof value !== 'string') return value;
+	return INTEGER_TEXT.test(value) ? Number(value) : null;
+}
+
+function fromDecimalText(value: unknown): unknown {
+	if (typeof value !== 'string') return value;
+	const text = value.trim();
+	return DECIMAL_TEXT.test(value) && text !== '' && text !== '.' ? Number(text) : null;
+}
+
 /** A checkbox: absent or empty when unticked, 'on' (its default value) when ticked. */
-function readCheckbox(value: unknown): boolean | null {
-	if (value === undefined || value === '' || value === false || value === 'off') return false;
-	if (value === 'on' || value === true) return true;
-	return null;
+function fromCheckbox(value: unknown): unknown {
+	if (value === undefined || value === '' || value === 'off') return false;
+	if (value === 'on') return true;
+	return value;
 }
 
 /**
- * The settings a person submitted, all fields checked strictly; the first bad field comes back
- * with a sentence to show beside it. Unlike `normalizeSettings` nothing falls back silently:
- * a wrong value on a form must be said, not replaced.
+ * Settings from loose input (a form read as text, or JSON), checked by `settingsSchema`; the
+ * first bad field comes back with a sentence to show beside it. Unlike `normalizeSettings` nothing
+ * falls back silently: a wrong value on a form must be said, not replaced. Zones come back in
+ * their canonical spelling.
  *
- * @example readSettingsInput({ instrument: 'alto-sax', timezone: 'Europe/Lisbon', digestHour: '18', digestEnabled: 'on', desiredRetention: '0.9', dailyMinutes: '20', keyOrder: 'fourths' })
+ * @example readSettingsInput({ instrument: 'alto-sax', timezone: 'Europe/Lisbon', digestHour: '18', digestEnabled: 'on', … })
  * // → { ok: true, settings: { instrument: 'alto-sax', digestHour: 18, digestEnabled: true, … } }
  */
 export function readSettingsInput(input: unknown): SettingsInputResult {
-	const form: SettingsInput =
-		input && typeof input === 'object' && !Array.isArray(input) ? (input as SettingsInput) : {};
-	const refuse = (field: keyof UserSettings, message: string) =>
-		({ ok: false, field, message }) as const;
-	const {
-		dailyMinutes: minutes,
-		desiredRetention: retention,
-		digestHour: hour,
-		newPerDay: fresh
-	} = SETTINGS_LIMITS;
-
-	const instrument = typeof form.instrument === 'string' ? form.instrument.trim() : '';
-	if (!isInstrumentId(instrument)) {
-		return refuse('instrument', 'Choose one of the instruments in the list.');
-	}
-	const dailyMinutes = readInteger(form.dailyMinutes);
-	if (dailyMinutes === null || dailyMinutes < minutes.min || dailyMinutes > minutes.max) {
-		return refuse(
-			'dailyMinutes',
-			`Enter a whole number of minutes from ${minutes.min} to ${minutes.max}.`
-		);
-	}
-	if (form.keyOrder !== 'weighted' && form.keyOrder !== 'fourths') {
-		return refuse('keyOrder', 'Choose how the keys are picked: weakest first or round the cycle.');
-	}
-	const desiredRetention = readDecimal(form.desiredRetention);
-	if (
-		desiredRetention === null ||
-		desiredRetention < retention.min ||
-		desiredRetention > retention.max
-	) {
-		return refuse(
-			'desiredRetention',
-			`Choose how much to remember: a share from ${retention.min.toFixed(2)} to ${retention.max.toFixed(2)}.`
-		);
-	}
-	const timezone = readTimezone(form.timezone);
-	if (!timezone) {
-		return refuse(
-			'timezone',
-			'Enter a time zone by its region and city name, such as Europe/Berlin or America/Chicago.'
-		);
-	}
-	const digestHour = readInteger(form.digestHour);
-	if (digestHour === null || digestHour < hour.min || digestHour > hour.max) {
-		return refuse('digestHour', 'Choose an hour of the day from 0 to 23.');
-	}
-	const digestEnabled = readCheckbox(form.digestEnabled);
-	if (digestEnabled === null) {
-		return refuse('digestEnabled', 'The daily reminder is either on or off.');
-	}
-	const dayStartHour = readInteger(form.dayStartHour);
-	if (dayStartHour === null || dayStartHour < hour.min || dayStartHour > hour.max) {
-		return refuse('dayStartHour', 'Choose the hour your practice day starts, from 0 to 23.');
-	}
-	const newPerDay = readInteger(form.newPerDay);
-	if (newPerDay === null || newPerDay < fresh.min || newPerDay > fresh.max) {
-		return refuse(
-			'newPerDay',
-			`Enter a whole number of new licks a day from ${fresh.min} to ${fresh.max}.`
-		);
-	}
-	return {
-		ok: true,
-		settings: {
-			timezone,
-			instrument,
-			digestHour,
-			digestEnabled,
-			desiredRetention,
-			dailyMinutes,
-			keyOrder: form.keyOrder,
-			dayStartHour,
-			newPerDay
-		}
-	};
+	const form: Record<string, unknown> =
+		input && typeof input === 'object' && !Array.isArray(input)
+			? (input as Record<string, unknown>)
+			: {};
+	const result = parseFirst(settingsSchema, {
+		instrument: typeof form.instrument === 'string' ? form.instrument.trim() : form.instrument,
+		dailyMinutes: fromIntegerText(form.dailyMinutes),
+		keyOrder: form.keyOrder,
+		desiredRetention: fromDecimalText(form.desiredRetention),
+		timezone: form.timezone,
+		digestHour: fromIntegerText(form.digestHour),
+		digestEnabled: fromCheckbox(form.digestEnabled),
+		dayStartHour: fromIntegerText(form.dayStartHour),
+		newPerDay: fromIntegerText(form.newPerDay)
+	});
+	if (!result.ok) return result;
+	const timezone = canonicalZone(result.value.timezone) as string; // the schema checked it
+	return { ok: true, settings: { ...result.value, timezone } };
 }

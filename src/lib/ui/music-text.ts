@@ -3,6 +3,8 @@
  * and the few header values the player needs from returned abc. Pure and framework-free.
  */
 
+import { beatsPerBar, readTempo } from '$lib/music/meter';
+
 const SIGN = { b: '♭', '#': '♯' } as const;
 
 /**
@@ -41,33 +43,21 @@ export function degreeForDisplay(label: string | null): string {
 }
 
 /**
- * Quarter-note tempo from an abc `Q:` field (abc 2.1 §3.1.8: `Q:1/4=120`, or a bare number,
- * read here as beats of a quarter); `fallback` without one.
+ * Quarter-note tempo from an abc text's `Q:` field, for text that has no engine answer (a
+ * variant answer carries `tempo`); `fallback` without one. Reading is `readTempo`'s.
  * @example tempoFromAbc('X:1\nQ:1/4=132\nK:C\nc') // 132
  */
 export function tempoFromAbc(abc: string, fallback = 120): number {
-	const m = /^Q:\s*(?:(\d+)\/(\d+)\s*=\s*)?(\d+)\s*$/m.exec(abc);
-	if (!m) return fallback;
-	const bpm = Number(m[3]);
-	// A tempo given for another beat (Q:3/8=60) becomes quarters per minute.
-	const beat = m[1] ? Number(m[1]) / Number(m[2]) : 0.25;
-	const quarters = (bpm * beat) / 0.25;
-	return Number.isFinite(quarters) && quarters > 0 ? Math.round(quarters) : fallback;
+	const m = /^Q:(.*)$/m.exec(abc);
+	return (m && readTempo(m[1])) ?? fallback;
 }
 
 /**
- * Beats of a count-in bar from the `M:` field (abc 2.1 §3.1.6): the numerator in x/4, the
- * dotted-quarter pulse in compound x/8, two per half in x/2; `C` and `C|` count four.
+ * Count-in beats from an abc text's `M:` field, for text that has no engine answer (a variant
+ * answer carries `beatsPerBar`). Reading is `beatsPerBar`'s.
  * @example countInBeats('M:6/8\nK:G') // 2
  */
 export function countInBeats(abc: string): number {
-	const m = /^M:\s*(\S+)/m.exec(abc);
-	if (!m) return 4;
-	if (m[1] === 'C' || m[1] === 'C|') return 4;
-	const [num, den] = m[1].split('/').map(Number);
-	if (!(num > 0 && num <= 12)) return 4;
-	if (den === 4) return num;
-	if (den === 8) return num % 3 === 0 ? num / 3 : num;
-	if (den === 2) return num * 2;
-	return 4;
+	const m = /^M:(.*)$/m.exec(abc);
+	return beatsPerBar(m ? m[1] : '');
 }

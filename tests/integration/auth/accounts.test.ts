@@ -3,8 +3,8 @@ import { QueryTypes } from 'sequelize';
 import {
 	changePassword,
 	deleteAccount,
-	promote,
-	promoteToAdmin,
+	setRole,
+	makeAdmin,
 	requestPasswordReset,
 	resendVerification,
 	resetPassword,
@@ -235,13 +235,28 @@ describe('changing the password', () => {
 		const here = await createSession(user.id);
 		const elsewhere = await createSession(user.id);
 
-		expect(await changePassword(user.id, 'wrong-password-1', 'comping-chords-9')).toMatchObject({
+		expect(
+			await changePassword(user.id, {
+				currentPassword: 'wrong-password-1',
+				password: 'comping-chords-9'
+			})
+		).toMatchObject({
 			ok: false,
 			field: 'currentPassword'
 		});
-		expect(await changePassword(user.id, PASSWORD, 'abc')).toMatchObject({ field: 'password' });
-		expect(await changePassword(user.id, PASSWORD, PASSWORD)).toMatchObject({ field: 'password' });
-		expect(await changePassword(user.id, PASSWORD, 'comping-chords-9', here.session.id)).toEqual({
+		expect(
+			await changePassword(user.id, { currentPassword: PASSWORD, password: 'abc' })
+		).toMatchObject({ field: 'password' });
+		expect(
+			await changePassword(user.id, { currentPassword: PASSWORD, password: PASSWORD })
+		).toMatchObject({ field: 'password' });
+		expect(
+			await changePassword(
+				user.id,
+				{ currentPassword: PASSWORD, password: 'comping-chords-9', confirm: 'comping-chords-9' },
+				here.session.id
+			)
+		).toEqual({
 			ok: true
 		});
 
@@ -255,32 +270,45 @@ describe('deleting an account', () => {
 	test('needs the password, then removes the user with their sessions and tokens', async () => {
 		const { user } = await signedUp();
 		await createSession(user.id);
-		expect(await deleteAccount(user.id, 'not-my-password')).toMatchObject({
+		expect(
+			await deleteAccount(user, { confirmEmail: user.email, deletePassword: 'not-my-password' })
+		).toMatchObject({ ok: false, field: 'deletePassword' });
+		expect(
+			await deleteAccount(user, { confirmEmail: 'someone@else.test', deletePassword: PASSWORD })
+		).toMatchObject({
 			ok: false,
-			field: 'password'
+			field: 'confirmEmail',
+			message: 'Type your e-mail address exactly to confirm; nothing was deleted.'
 		});
 		expect(await User.findByPk(user.id)).not.toBeNull();
 
-		expect(await deleteAccount(user.id, PASSWORD)).toEqual({ ok: true });
+		expect(
+			await deleteAccount(user, {
+				confirmEmail: ` ${user.email.toUpperCase()} `,
+				deletePassword: PASSWORD
+			})
+		).toEqual({ ok: true });
 		expect(await User.findByPk(user.id)).toBeNull();
 		const left = await world.db.query<{ n: number }>(
 			'SELECT (SELECT COUNT(*) FROM sessions WHERE user_id = :id) + (SELECT COUNT(*) FROM email_tokens WHERE user_id = :id) AS n',
 			{ type: QueryTypes.SELECT, replacements: { id: user.id } }
 		);
 		expect(left[0].n).toBe(0);
-		expect(await deleteAccount(user.id, PASSWORD)).toMatchObject({ reason: 'not-found' });
+		expect(
+			await deleteAccount(user, { confirmEmail: user.email, deletePassword: PASSWORD })
+		).toMatchObject({ reason: 'not-found' });
 	});
 });
 
 describe('roles', () => {
-	test('promoteToAdmin makes an admin once and reports when nothing changed', async () => {
+	test('makeAdmin makes an admin once and reports when nothing changed', async () => {
 		const { email, user } = await signedUp();
-		expect(await promoteToAdmin(email)).toMatchObject({
+		expect(await makeAdmin(email)).toMatchObject({
 			ok: true,
 			changed: true,
 			user: { id: user.id, role: 'admin' }
 		});
-		expect(await promoteToAdmin(email)).toMatchObject({ ok: true, changed: false });
+		expect(await makeAdmin(email)).toMatchObject({ ok: true, changed: false });
 		expect((await User.findByPk(user.id))!.role).toBe('admin');
 	});
 
@@ -288,14 +316,30 @@ describe('roles', () => {
 		['nobody@example.test', 'admin', 'not-found'],
 		['not an address', 'admin', 'invalid'],
 		['x@example.test', 'superuser', 'invalid']
-	])('promote(%j, %j) answers %s', async (email, role, reason) => {
-		expect(await promote(email, role)).toMatchObject({ ok: false, reason });
+	])('setRole(%j, %j) answers %s', async (email, role, reason) => {
+		expect(await setRole(null, { email, role })).toMatchObject({ ok: false, reason });
+	});
+
+	test('an admin cannot change their own role, and can demote another account', async () => {
+		const { email } = await signedUp();
+		expect(await setRole({ email }, { email, role: 'learner' })).toEqual({
+			ok: false,
+			reason: 'own-role',
+			message: 'You cannot change your own role; ask another admin.'
+		});
+		const other = await signedUp();
+		await makeAdmin(other.email);
+		expect(await setRole({ email }, { email: other.email, role: 'learner' })).toMatchObject({
+			ok: true,
+			changed: true,
+			user: { role: 'learner' }
+		});
 	});
 
 	test('a session sees a new role on its next request', async () => {
 		const { email, user } = await signedUp();
 		const { token } = await createSession(user.id);
-		await promote(email, 'teacher');
+		await setRole(null, { email, role: 'teacher' });
 		expect((await validateSessionToken(token)).user?.role).toBe('teacher');
 		expect(await Session.count({ where: { userId: user.id } })).toBe(1);
 	});

@@ -10,7 +10,7 @@ import { POST as signOutPost } from '../../../src/routes/api/auth/sign-out/+serv
 import { GET as meGet } from '../../../src/routes/api/me/+server';
 import { FakeCookies, fakeEvent, type FakeEventInput } from '../support/fake-event';
 import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
-import { verifyEmail, promote } from '../../../src/lib/server/auth/accounts';
+import { verifyEmail, makeAdmin } from '../../../src/lib/server/auth/accounts';
 
 let world: TestWorld;
 beforeAll(async () => {
@@ -343,7 +343,7 @@ describe('the role gate in hooks.server.ts', () => {
 		expect(await status('/(admin)/admin', '/admin')).toBe(403);
 
 		const admin = await signUpAndIn('learner');
-		await promote(admin.email, 'admin');
+		await makeAdmin(admin.email);
 		const adminStatus = async (routeId: string, path: string) =>
 			(await call(ok, { routeId, path, cookies: admin.cookies })).status;
 		expect(await adminStatus('/(admin)/admin/outbox', '/admin/outbox')).toBe(200);

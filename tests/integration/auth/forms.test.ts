@@ -98,8 +98,10 @@ describe('the account forms', () => {
 		expect(done.result).toMatchObject({
 			status: 422,
 			data: {
-				values: { name: 'Form Player', email: 'form2@example.test', role: 'learner' },
-				field: 'password'
+				form: {
+					data: { name: 'Form Player', email: 'form2@example.test', role: 'learner', password: '' },
+					errors: { password: ['Use at least 10 characters.'] }
+				}
 			}
 		});
 		expect(JSON.stringify(done.result)).not.toContain('short');
@@ -135,7 +137,14 @@ describe('the account forms', () => {
 			});
 			statuses.push((done.result as { status: number }).status);
 			if (i === 0) {
-				expect(done.result).toMatchObject({ data: { values: { email: 'form3@example.test' } } });
+				expect(done.result).toMatchObject({
+					data: {
+						form: {
+							data: { email: 'form3@example.test', password: '' },
+							message: 'That e-mail and password do not match an account.'
+						}
+					}
+				});
 			}
 		}
 		expect(statuses).toEqual([400, 400, 400, 400, 400, 429]);
@@ -149,7 +158,10 @@ describe('the account forms', () => {
 			contentType: 'application/json'
 		});
 		const result = await signUpActions.default(event as never);
-		expect(result).toMatchObject({ status: 400 });
+		expect(result).toMatchObject({
+			status: 400,
+			data: { form: { message: 'The form could not be read.' } }
+		});
 		expect(await User.count()).toBe(before);
 	});
 
@@ -165,7 +177,10 @@ describe('the account forms', () => {
 			password: 'comping-chords-9',
 			confirm: 'comping-chords-8'
 		});
-		expect(mismatch.result).toMatchObject({ status: 422, data: { field: 'confirm' } });
+		expect(mismatch.result).toMatchObject({
+			status: 422,
+			data: { form: { errors: { confirm: ['The two passwords are not the same.'] } } }
+		});
 		const done = await post(resetActions.default, {
 			token,
 			password: 'comping-chords-9',
@@ -177,7 +192,10 @@ describe('the account forms', () => {
 			password: 'comping-chords-9',
 			confirm: 'comping-chords-9'
 		});
-		expect(reused.result).toMatchObject({ status: 400, data: { field: 'token' } });
+		expect(reused.result).toMatchObject({
+			status: 400,
+			data: { form: { message: 'This link has already been used or replaced by a newer one.' } }
+		});
 	});
 });
 

@@ -34,6 +34,19 @@ const FORM = {
 	newPerDay: '3'
 };
 
+/** FORM as typed values. */
+const SAVED_FORM = {
+	instrument: 'alto-sax',
+	dailyMinutes: 25,
+	keyOrder: 'fourths',
+	desiredRetention: 0.85,
+	timezone: 'Europe/Lisbon',
+	digestHour: 18,
+	digestEnabled: true,
+	dayStartHour: 6,
+	newPerDay: 3
+};
+
 let counter = 0;
 async function newLearner(): Promise<SessionUser> {
 	counter += 1;
@@ -156,7 +169,7 @@ describe('the practice form on /settings', () => {
 	test('the page loads the stored settings into the form', async () => {
 		const user = await newLearner();
 		const { result } = await asRequest(user, '', 'text/plain', load as never);
-		expect(result).toMatchObject({ practice: DEFAULT_SETTINGS });
+		expect(result).toMatchObject({ practice: { id: 'practice', data: DEFAULT_SETTINGS } });
 	});
 
 	test('a valid form saves and answers 303 back to the page with a success flag', async () => {
@@ -176,12 +189,16 @@ describe('the practice form on /settings', () => {
 		expect(result).toMatchObject({
 			status: 422,
 			data: {
-				form: 'practice',
-				field: 'dailyMinutes',
-				message: 'Enter a whole number of minutes from 5 to 120.',
-				values: { ...FORM, dailyMinutes: '600', digestEnabled: true }
+				form: {
+					id: 'practice',
+					errors: { dailyMinutes: ['Enter a whole number of minutes from 5 to 120.'] },
+					data: { ...SAVED_FORM, dailyMinutes: 600 }
+				}
 			}
 		});
+		expect(
+			Object.keys((result as { data: { form: { errors: object } } }).data.form.errors)
+		).toEqual(['dailyMinutes']);
 		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
 	});
 
@@ -193,7 +210,7 @@ describe('the practice form on /settings', () => {
 		const { result } = await asRequest(user, body, contentType, actions.practice as never);
 		expect(result).toMatchObject({
 			status: 400,
-			data: { form: 'practice', message: 'The form could not be read.' }
+			data: { form: { id: 'practice', message: 'The form could not be read.' } }
 		});
 		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
 	});
@@ -201,7 +218,10 @@ describe('the practice form on /settings', () => {
 	test('an empty form is refused with 422 on its first field', async () => {
 		const user = await newLearner();
 		const { result } = await postForm(user, {});
-		expect(result).toMatchObject({ status: 422, data: { field: 'instrument' } });
+		expect(result).toMatchObject({
+			status: 422,
+			data: { form: { errors: { instrument: ['Choose one of the instruments in the list.'] } } }
+		});
 		expect(await storedSettings(user.id)).toEqual(DEFAULT_SETTINGS);
 	});
 

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { deleteAccount, promote, signIn } from '../../../src/lib/server/auth/accounts';
+import { deleteAccount, setRole, signIn } from '../../../src/lib/server/auth/accounts';
 import { createSession, validateSessionToken } from '../../../src/lib/server/auth/session';
 import { closeDb, openDb } from '../../../src/lib/server/db/index';
 import { migrate } from '../../../src/lib/server/db/migrate';
@@ -36,7 +36,7 @@ describe.skipIf(!url)('the data layer on PostgreSQL', () => {
 		expect((await seedDemo('demo-password-12')).created).toEqual([]);
 		const result = await signIn({ email: 'alto@example.com', password: 'demo-password-12' });
 		expect(result.ok && result.user.settings.instrument).toBe('alto-sax');
-		expect(await promote('guitar@example.com', 'teacher')).toMatchObject({
+		expect(await setRole(null, { email: 'guitar@example.com', role: 'teacher' })).toMatchObject({
 			ok: true,
 			changed: true
 		});
@@ -47,7 +47,12 @@ describe.skipIf(!url)('the data layer on PostgreSQL', () => {
 		const { token } = await createSession(user!.id);
 		expect(await Session.count({ where: { id: token } })).toBe(0);
 		expect((await validateSessionToken(token)).user?.email).toBe('trumpet@example.com');
-		expect(await deleteAccount(user!.id, 'demo-password-12')).toEqual({ ok: true });
+		expect(
+			await deleteAccount(user!, {
+				confirmEmail: 'trumpet@example.com',
+				deletePassword: 'demo-password-12'
+			})
+		).toEqual({ ok: true });
 		expect(await Session.count({ where: { userId: user!.id } })).toBe(0);
 		expect(await User.count()).toBe(DEMO_ACCOUNTS.length - 1);
 	});

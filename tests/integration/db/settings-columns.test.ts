@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { createMigrator } from '../../../src/lib/server/db/migrate';
+import { createMigrator, prepareMigrations } from '../../../src/lib/server/db/migrate';
 import { User } from '../../../src/lib/server/db/models/index';
 import { settingsOf } from '../../../src/lib/server/study/settings';
 import { openTestWorld, type TestWorld } from '../support/world';
@@ -13,6 +13,7 @@ afterAll(() => world.close());
 
 describe('migration 0003-settings-columns', () => {
 	test('copies the queried settings out of the JSON into their columns and keeps the rest', async () => {
+		await prepareMigrations(world.db);
 		const migrator = createMigrator(world.db);
 		await migrator.up({ to: '0002-core-loop' });
 		const insert = (id: string, settings: unknown) =>

@@ -15,12 +15,15 @@ import { GET as cardGet } from '../../../src/routes/api/cards/[id]/+server';
 import { POST as cardsPost } from '../../../src/routes/api/cards/+server';
 import { GET as progressGet } from '../../../src/routes/api/drill/progress/+server';
 import { dueCounts, learnerStreak, weakestKeys } from '../../../src/lib/server/study/progress';
+import { configureEngineBudget } from '../../../src/lib/server/music/render';
 import { openTestWorld, type TestWorld } from '../support/world';
 import { call, makeClass, makeDeck, makeLick, makeUser } from './world';
 
 let world: TestWorld;
 beforeAll(async () => {
 	world = await openTestWorld();
+	// The engine's global budget guards production; these tests are about the drill.
+	configureEngineBudget(60_000);
 });
 afterAll(() => world.close());
 

@@ -4,11 +4,14 @@ import { DEMO_LICKS } from '../../../src/lib/demo/licks';
 import { seedDemo } from '../../../src/lib/server/demo/seed';
 import { seedDemoPractice } from '../../../src/lib/server/demo/practice';
 import { buildToday } from '../../../src/lib/server/study/today';
+import { configureEngineBudget } from '../../../src/lib/server/music/render';
 import { openTestWorld, type TestWorld } from '../support/world';
 
 let world: TestWorld;
 beforeAll(async () => {
 	world = await openTestWorld();
+	// The engine's global budget guards production; these tests are about the drill.
+	configureEngineBudget(60_000);
 	await seedDemo('demo-password-12');
 });
 afterAll(() => world.close());

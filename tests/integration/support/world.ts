@@ -25,7 +25,8 @@ export async function openTestWorld(options: { migrate?: boolean } = {}): Promis
 	delete process.env.DATABASE_URL;
 	delete process.env.SMTP_URL;
 	resetConfig();
-	const db = openDb(`sqlite:${path.join(dataDir, 'test.sqlite')}`);
+	// Strict: a query that forgets `{ transaction }` inside one fails the test at once.
+	const db = openDb(`sqlite:${path.join(dataDir, 'test.sqlite')}`, { strict: true });
 	if (options.migrate !== false) await migrate(db);
 	return {
 		dataDir,

@@ -9,12 +9,16 @@
 import { formatKeyField, type KeySignature } from '../keys';
 import {
 	abcLetter,
+	chromaOf,
 	formatNoteName,
+	LETTER_SEMITONES,
+	mod12,
+	stepsBetween,
 	type SpelledNote,
 	type SpelledPitch,
 	type Steps
 } from '../pitch';
-import { simplifyNoteName } from '../spelling';
+import { simplifyNoteName, spellingCost } from '../spelling';
 import { transposeNoteName } from '../transpose';
 import type { ParsedAbc } from './parse';
 
@@ -224,11 +228,39 @@ export function transposeChordSymbol(
 	moved?: SpelledNote[]
 ): string {
 	const t = chordTemplate(symbol);
+	const names: SpelledNote[] = t.roots.map((r) =>
+		simplifyNoteName(transposeNoteName(r, by), accidentals)
+	);
+	// A slash bass keeps its interval name from its chord's root (E7/G# a tone up is F#7/A#, not
+	// F#7/Bb); where that needs an awkward letter, the root and bass move together to the
+	// enharmonic pair that is cheaper to read (G#7/B# or Ab7/C), the asked spelling on a tie.
+	if (t.bass > 0) spellSlash(t, names, accidentals);
 	let out = t.pieces[0];
-	for (let i = 0; i < t.roots.length; i++) {
-		const root = simplifyNoteName(transposeNoteName(t.roots[i], by), accidentals);
-		if (moved) moved.push(root);
-		out += formatNoteName(root) + t.pieces[i + 1];
+	for (let i = 0; i < names.length; i++) {
+		if (moved) moved.push(names[i]);
+		out += formatNoteName(names[i]) + t.pieces[i + 1];
 	}
 	return out;
+}
+
+function spellSlash(t: ChordTemplate, names: SpelledNote[], accidentals: readonly number[]): void {
+	const r = t.bass - 1;
+	const iv = stepsBetween(t.roots[r], t.roots[t.bass]);
+	let best: { root: SpelledNote; bass: SpelledNote; cost: number } | null = null;
+	for (const d of [0, -1, 1]) {
+		const root = names[r];
+		const letter = (root.letter + d + 7) % 7;
+		const alt = d === 0 ? root.alt : mod12(chromaOf(root) - LETTER_SEMITONES[letter] + 6) - 6;
+		if (alt > 1 || alt < -1) continue;
+		const candidate = { letter, alt };
+		const bass = transposeNoteName(candidate, iv);
+		if (bass.alt > 2 || bass.alt < -2) continue;
+		const cost =
+			spellingCost(letter, alt, accidentals) + spellingCost(bass.letter, bass.alt, accidentals);
+		if (!best || cost < best.cost) best = { root: candidate, bass, cost };
+	}
+	if (best) {
+		names[r] = best.root;
+		names[t.bass] = best.bass;
+	}
 }

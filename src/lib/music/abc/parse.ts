@@ -4,6 +4,7 @@
  * One pass over the token list; the emitter reuses the result for every target key.
  */
 import { parseKeyField, type KeySignature } from '../keys';
+import { readTempo } from '../meter';
 import { LETTERS, midiOf, type SpelledPitch } from '../pitch';
 import type { ChordContext, MusicWarning, SoundingNote } from '../types';
 import { tokenize, type AbcError, type Token } from './tokenize';
@@ -39,6 +40,8 @@ export interface ParsedAbc {
 	/** Every key signature, in order; `keys[0]` is the lick's own key (its first K:). */
 	keys: { token: number; key: KeySignature }[];
 	meter: string;
+	/** Quarter-note beats a minute from the header's `Q:` (abc 2.1 §3.1.8), or null. */
+	tempo: number | null;
 	/** Unit note length in whole notes (L:, or the default from M:, abc 2.1 §3.1.7). */
 	unitLength: number;
 	heads: NoteHead[];
@@ -157,6 +160,7 @@ function readTokens(
 	let propagation: Propagation = 'pitch';
 	let meter = '';
 	let headerMeter = '';
+	let tempo: number | null = null;
 	let unitLength: number | null = null;
 	let headerUnit: number | null = null;
 	let inBody = false;
@@ -210,6 +214,7 @@ function readTokens(
 						message: `Line ${t.line}: a lick is read as one line of music; the notes of every voice (V:) are read one after another.`
 					});
 				}
+				if (name === 'Q' && tempo === null) tempo = readTempo(value);
 				if (name === 'M') {
 					if (meterLength(value) === undefined) {
 						return fail(
@@ -467,6 +472,7 @@ function readTokens(
 			tokens,
 			keys,
 			meter: headerMeter,
+			tempo,
 			unitLength: headerUnit ?? defaultUnitLength(headerMeter),
 			heads,
 			notes,

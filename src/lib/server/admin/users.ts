@@ -1,4 +1,3 @@
-import { getDb } from '../db/index';
 import { ROLES, User, type Role } from '../db/models/index';
 
 /**
@@ -21,7 +20,6 @@ export interface AdminUserRow {
  * @example await countUsersByRole() // { learner: 3, teacher: 1, admin: 1 }
  */
 export async function countUsersByRole(): Promise<Record<Role, number>> {
-	getDb();
 	const counts = Object.fromEntries(ROLES.map((role) => [role, 0])) as Record<Role, number>;
 	const rows = (await User.count({ group: ['role'] })) as unknown as {
 		role: Role;
@@ -38,7 +36,6 @@ export async function countUsersByRole(): Promise<Record<Role, number>> {
  * @example (await listUsers({ limit: 1 }))[0] // { id: '…', name: 'Ada', email: 'ada@…', role: 'learner', … }
  */
 export async function listUsers({ limit = 100 }: { limit?: number } = {}): Promise<AdminUserRow[]> {
-	getDb();
 	const rows = await User.findAll({
 		attributes: ['id', 'name', 'email', 'role', 'emailVerifiedAt', 'createdAt'],
 		order: [

@@ -1,7 +1,6 @@
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import { Op } from 'sequelize';
 import { getConfig } from '../config';
-import { getDb } from '../db/index';
 import { Session, User } from '../db/models/index';
 import { createToken, hashToken } from './tokens';
 import { toSessionUser, type SessionUser } from './user';
@@ -48,19 +47,16 @@ function toDatabaseUser(row: User): DatabaseUser {
 export function createSessionAdapter(): Adapter {
 	return {
 		async getSessionAndUser(sessionId) {
-			getDb();
 			const row = await Session.findByPk(hashToken(sessionId), { include: [User] });
 			if (!row) return [null, null];
 			const user = (row as Session & { User?: User }).User;
 			return [toDatabaseSession(sessionId, row), user ? toDatabaseUser(user) : null];
 		},
 		async getUserSessions(userId) {
-			getDb();
 			const rows = await Session.findAll({ where: { userId } });
 			return rows.map((row) => toDatabaseSession(row.id, row));
 		},
 		async setSession(session) {
-			getDb();
 			await Session.create({
 				id: hashToken(session.id),
 				userId: session.userId,
@@ -68,19 +64,15 @@ export function createSessionAdapter(): Adapter {
 			});
 		},
 		async updateSessionExpiration(sessionId, expiresAt) {
-			getDb();
 			await Session.update({ expiresAt }, { where: { id: hashToken(sessionId) } });
 		},
 		async deleteSession(sessionId) {
-			getDb();
 			await Session.destroy({ where: { id: hashToken(sessionId) } });
 		},
 		async deleteUserSessions(userId) {
-			getDb();
 			await Session.destroy({ where: { userId } });
 		},
 		async deleteExpiredSessions() {
-			getDb();
 			await Session.destroy({ where: { expiresAt: { [Op.lte]: new Date() } } });
 		}
 	};
@@ -131,7 +123,6 @@ export async function validateSessionToken(token: string): Promise<ValidatedSess
 
 /** End one session by its stored id (`locals.session.id`). */
 export async function invalidateSession(sessionId: string): Promise<void> {
-	getDb();
 	await Session.destroy({ where: { id: sessionId } });
 }
 

@@ -55,9 +55,15 @@ export function sqliteStorageOf(url: string): string | null {
  * but node-sqlite3 waits for a lock on a libuv worker thread: with four transactions waiting
  * (the default pool size) the holder's next statement finds no thread and everything stalls
  * until the busy timeouts expire. Queueing in JavaScript keeps at most one transaction at the
- * database, so nobody blocks a thread for long.
+ * database, so nobody blocks a thread for long. Only managed transactions (with a callback) are
+ * accepted: the queue must know when one ends. Correctness never rests on this queue (other
+ * processes and PostgreSQL do not have it): constraints and compare-and-set updates do that.
+ *
+ * With `strict`, a query sent while this async context is inside a transaction but without its
+ * `{ transaction }` throws at once: on SQLite it would go to another connection and wait for
+ * the very lock its own transaction holds. Tests turn it on (`openDb(url, { strict: true })`).
  */
-function serializeTransactions(sequelize: Sequelize): void {
+function serializeTransactions(sequelize: Sequelize, strict: boolean): void {
 	const original = sequelize.transaction.bind(sequelize) as (
 		...args: unknown[]
 	) => Promise<unknown>;
@@ -76,6 +82,11 @@ function serializeTransactions(sequelize: Sequelize): void {
 		const callback = args.find((arg) => typeof arg === 'function') as
 			((t: Transaction) => Promise<unknown>) | undefined;
 		const options = args.find((arg) => arg && typeof arg === 'object');
+		if (!callback) {
+			throw new Error(
+				'Pass a callback to sequelize.transaction(async (transaction) => …); unmanaged transactions are not supported.'
+			);
+		}
 		if (inside.getStore()) {
 			// The inner one would wait for the outer one, which waits for the inner one.
 			throw new Error(
@@ -83,50 +94,38 @@ function serializeTransactions(sequelize: Sequelize): void {
 			);
 		}
 		const release = await acquire();
-		if (callback) {
-			try {
-				return await inside.run(true, () => original(options ?? {}, callback));
-			} finally {
-				release();
-			}
-		}
-		// Unmanaged: the queue moves on when the caller commits or rolls back.
 		try {
-			const transaction = (await original(options)) as Transaction;
-			const commit = transaction.commit.bind(transaction);
-			const rollback = transaction.rollback.bind(transaction);
-			transaction.commit = async () => {
-				try {
-					await commit();
-				} finally {
-					release();
-				}
-			};
-			transaction.rollback = async () => {
-				try {
-					await rollback();
-				} finally {
-					release();
-				}
-			};
-			return transaction;
-		} catch (error) {
+			return await inside.run(true, () => original(options ?? {}, callback));
+		} finally {
 			release();
-			throw error;
 		}
 	};
 	sequelize.transaction = queued as Sequelize['transaction'];
+
+	if (strict) {
+		const query = sequelize.query.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
+		sequelize.query = ((sql: unknown, options?: { transaction?: unknown }) => {
+			if (inside.getStore() && !options?.transaction) {
+				const text = typeof sql === 'string' ? sql : String((sql as { query?: string })?.query);
+				throw new Error(
+					`A query inside a transaction was sent without { transaction }: ${text.slice(0, 120)}`
+				);
+			}
+			return query(sql, options);
+		}) as Sequelize['query'];
+	}
 }
 
 let current: Sequelize | null = null;
 
 /**
- * Open a database from a URL and bind the models to it; it becomes the one `getDb()` returns.
- * Tests call it with a temporary file.
+ * Open a database from a URL and bind the models to it, once; it becomes the one `getDb()`
+ * returns. The server opens it at start (`init`: the migrations ask for it first); scripts and
+ * tests call it with their own URL.
  *
  * @example openDb('sqlite:/tmp/test-1.sqlite')
  */
-export function openDb(url: string): Sequelize {
+export function openDb(url: string, options: { strict?: boolean } = {}): Sequelize {
 	const storage = sqliteStorageOf(url);
 	let sequelize: Sequelize;
 	if (storage) {
@@ -140,7 +139,7 @@ export function openDb(url: string): Sequelize {
 			transactionType: Transaction.TYPES.IMMEDIATE,
 			logging: false
 		});
-		serializeTransactions(sequelize);
+		serializeTransactions(sequelize, options.strict ?? false);
 	} else if (/^postgres(ql)?:\/\//.test(url)) {
 		sequelize = new Sequelize(url, { dialect: 'postgres', logging: false });
 	} else {

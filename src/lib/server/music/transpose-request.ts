@@ -12,6 +12,8 @@ import {
 	readKeyName,
 	VariantRequestError,
 	type HandWrittenVersions,
+	type QualityId,
+	type TritoneSpelling,
 	type VariantOptions
 } from '$lib/music';
 
@@ -148,4 +150,103 @@ function readVersions(
 		versions[quality] = text;
 	}
 	return { ok: true, versions };
+}
+
+export type GridInput =
+	| {
+			ok: true;
+			abc: string;
+			versions: HandWrittenVersions;
+			keys?: string[];
+			qualities?: QualityId[];
+			instrument?: string;
+			tritone?: TritoneSpelling;
+	  }
+	| { ok: false; status: 400 | 422; message: string };
+
+const GRID_FIELDS = ['abc', 'keys', 'qualities', 'instrument', 'tritone', 'versions'];
+
+/** At most this many target keys in one grid (every spelling of the twelve, twice over). */
+export const MAX_GRID_KEYS = 24;
+
+/**
+ * Check a grid request's fields and types: `{abc, keys?, qualities?, instrument?, tritone?,
+ * versions?}`; the engine checks the music.
+ * @example readGridInput({ abc: 'X:1\nK:C\n"C7"C', keys: ['C', 'F'] }) // { ok: true, keys: ['C', 'F'], … }
+ */
+export function readGridInput(body: unknown): GridInput {
+	if (!body || typeof body !== 'object' || Array.isArray(body)) {
+		return {
+			ok: false,
+			status: 400,
+			message:
+				'The body must be a JSON object such as {"abc": "X:1\\nK:C\\nCDEF|", "keys": ["C", "F"]}.'
+		};
+	}
+	const value = body as Record<string, unknown>;
+	const unknown = Object.keys(value).filter((k) => !GRID_FIELDS.includes(k));
+	if (unknown.length) {
+		return {
+			ok: false,
+			status: 400,
+			message: `Unknown field ${unknown.map((k) => `“${k}”`).join(', ')}: send abc, keys, qualities, instrument, tritone or versions.`
+		};
+	}
+	const { keys, qualities, ...single } = value;
+	const base = readTransposeInput(single);
+	if (!base.ok) return base;
+	const out: GridInput = { ok: true, abc: base.abc, versions: base.versions };
+	if (base.options.instrument) out.instrument = base.options.instrument;
+	if (base.options.tritone) out.tritone = base.options.tritone;
+	if (keys !== undefined && keys !== null) {
+		if (!Array.isArray(keys) || keys.some((k) => typeof k !== 'string')) {
+			return {
+				ok: false,
+				status: 400,
+				message: '“keys” must be a list of key names such as ["C", "F", "Bb"].'
+			};
+		}
+		if (keys.length === 0 || keys.length > MAX_GRID_KEYS) {
+			return {
+				ok: false,
+				status: 422,
+				message: `Ask for 1 to ${MAX_GRID_KEYS} keys at a time, or leave “keys” out for all twelve.`
+			};
+		}
+		for (const k of keys as string[]) {
+			try {
+				readKeyName(k);
+			} catch (e) {
+				if (e instanceof VariantRequestError) return { ok: false, status: 422, message: e.message };
+				throw e;
+			}
+		}
+		out.keys = keys as string[];
+	}
+	if (qualities !== undefined && qualities !== null) {
+		if (!Array.isArray(qualities) || qualities.some((q) => typeof q !== 'string')) {
+			return {
+				ok: false,
+				status: 400,
+				message: '“qualities” must be a list of chord qualities such as ["7", "m7"].'
+			};
+		}
+		const bad = (qualities as string[]).find((q) => !isQualityId(q));
+		if (bad !== undefined) {
+			return {
+				ok: false,
+				status: 422,
+				message: `“${bad}” is not a chord quality: use one of ${QUALITY_IDS.join(', ')}.`
+			};
+		}
+		if (qualities.length > QUALITY_IDS.length) {
+			return {
+				ok: false,
+				status: 422,
+				message: `Ask for at most ${QUALITY_IDS.length} qualities, each once.`
+			};
+		}
+		out.qualities = [...new Set(qualities as QualityId[])];
+	}
+	return out;
 }

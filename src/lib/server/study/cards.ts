@@ -26,9 +26,11 @@ import { loadLearner, type Actor } from './learner';
 /** A refusal a route turns into its status and sentence. */
 export class StudyError extends Error {
 	constructor(
-		readonly status: 400 | 404 | 409 | 422,
+		readonly status: 400 | 404 | 409 | 422 | 503,
 		message: string,
-		readonly field?: string
+		readonly field?: string,
+		/** For a 503: when to try again. */
+		readonly retryAfterSeconds?: number
 	) {
 		super(message);
 		this.name = 'StudyError';

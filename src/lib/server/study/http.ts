@@ -7,6 +7,15 @@ import { StudyError } from './cards';
  */
 export function studyRefusal(error: unknown): Response {
 	if (error instanceof StudyError) {
+		if (error.status === 503) {
+			const wait = error.retryAfterSeconds ?? 1;
+			return apiError(
+				503,
+				error.message,
+				{ retryAfterSeconds: wait },
+				{ 'Retry-After': String(wait) }
+			);
+		}
 		return apiError(error.status, error.message, error.field ? { field: error.field } : {});
 	}
 	throw error;

@@ -332,7 +332,13 @@ async function answerFor(
 		const { end } = learnerDay(learner, now);
 		const current = await Card.findByPk(review.cardId, { attributes: ['version'] });
 		if (current && current.version === version && new Date(state.due) < end) {
-			again = await promptForCard(learner, review.cardId, now);
+			try {
+				again = await promptForCard(learner, review.cardId, now);
+			} catch (error) {
+				// The grade is saved whatever happens here; with the engine busy, the client
+				// shows the card again from the prompt it already holds.
+				if (!(error instanceof StudyError && error.status === 503)) throw error;
+			}
 		}
 	}
 	return {

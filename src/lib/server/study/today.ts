@@ -5,7 +5,8 @@
 import { Op, QueryTypes } from 'sequelize';
 import { getDb } from '../db/index';
 import { Assignment, ClassGroup, Comment, Lick, LickVersion, User } from '../db/models/index';
-import { computeVariant, type HandWrittenVersions, type QualityId } from '../../music';
+import type { HandWrittenVersions, QualityId } from '../../music';
+import { renderLickVariant } from '../music/render';
 import type { TodayAnswer, TodayItem } from '../../practice/api';
 import { pickKey, type KeyMode, type KeyPlay } from '../../practice/keys';
 import {
@@ -246,31 +247,22 @@ async function promptsFor(
 		history.set(lick.id, [...past, { key, grade: 3, at: now }]);
 		const own: HandWrittenVersions = {};
 		for (const v of versions) if (v.lickId === lick.id) own[v.quality as QualityId] = v.abc;
-		const variant = computeVariant({
-			abc: lick.abc,
-			versions: own,
-			to: key,
-			quality: card.quality as QualityId,
-			instrument: learner.instrument
-		});
-		if (!variant.ok) {
+		// Through the engine's bounded door, shared with every other route that renders.
+		const rendered = await renderLickVariant(
+			{ abc: lick.abc, versions: own },
+			{ to: key, quality: card.quality as QualityId, instrument: learner.instrument }
+		);
+		if (!rendered.ok) {
+			if (rendered.status === 503) {
+				throw new StudyError(503, rendered.message, undefined, rendered.retryAfterSeconds);
+			}
 			// A lick its author broke after the card was made: skip it rather than fail the day.
 			console.error(
-				`drill: card ${card.id} (lick ${lick.id}) does not render: ${variant.error.message}`
+				`drill: card ${card.id} (lick ${lick.id}) does not render: ${rendered.message}`
 			);
 			continue;
 		}
-		const body = {
-			abc: variant.abc,
-			key: variant.key,
-			writtenKey: variant.writtenKey,
-			quality: variant.quality,
-			instrument: variant.instrument,
-			warnings: variant.warnings,
-			notes: variant.notes,
-			devices: variant.devices,
-			handWritten: variant.handWritten
-		};
+		const variant = rendered.value;
 		const targetTempo = assignment?.targetTempo ?? lick.tempo;
 		const previews = previewDue(card.id, card, now, { desiredRetention: learner.desiredRetention });
 		items.push({
@@ -297,7 +289,7 @@ async function promptsFor(
 				3: previews[3].toISOString(),
 				4: previews[4].toISOString()
 			},
-			variant: body,
+			variant,
 			comments: comments
 				.filter((c) => c.cardId === card.id)
 				.map((c) => ({

@@ -1,26 +1,27 @@
-import { fail, redirect } from '@sveltejs/kit';
-import { requestPasswordReset } from '$lib/server/auth/accounts';
-import { readForm } from '$lib/server/auth/form';
+import { redirect } from '@sveltejs/kit';
+import { forgotPasswordSchema } from '$lib/forms/account';
+import { requestPasswordReset } from '$lib/server/auth/reset';
 import { consumeReset } from '$lib/server/auth/limits';
+import { emptyForm, readForm, unreadable, refuse, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ url }) => ({ sent: url.searchParams.has('sent') });
+export const load: PageServerLoad = async ({ url }) => ({
+	form: await emptyForm(forgotPasswordSchema),
+	sent: url.searchParams.has('sent')
+});
 
 export const actions: Actions = {
 	default: async ({ request, getClientAddress }) => {
-		const form = await readForm(request);
-		if (!form) return fail(400, { values: { email: '' }, message: 'The form could not be read.' });
-		const values = { email: form.email ?? '' };
+		const form = await readForm(request, forgotPasswordSchema);
+		if (!form) return unreadable(forgotPasswordSchema);
 
-		const limit = consumeReset(getClientAddress(), values.email);
+		const limit = consumeReset(getClientAddress(), form.data.email);
 		if (!limit.allowed) {
-			return fail(429, {
-				values,
-				message: `Too many requests. Try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`
-			});
+			const minutes = Math.ceil(limit.retryAfterSeconds / 60);
+			return say(form, `Too many requests. Try again in ${minutes} minutes.`, 429);
 		}
-		const result = await requestPasswordReset(values.email);
-		if (!result.ok) return fail(422, { values, message: result.message });
+		if (!form.valid) return refuse(form);
+		await requestPasswordReset(form.data.email);
 		// The same answer whether or not the address has an account.
 		redirect(303, '/forgot-password?sent');
 	}

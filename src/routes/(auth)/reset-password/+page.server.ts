@@ -1,23 +1,27 @@
-import { fail, redirect } from '@sveltejs/kit';
-import { resetPassword } from '$lib/server/auth/accounts';
-import { readForm } from '$lib/server/auth/form';
+import { redirect } from '@sveltejs/kit';
+import { resetPasswordSchema } from '$lib/forms/account';
+import { resetPassword } from '$lib/server/auth/reset';
 import { deleteSessionCookie } from '$lib/server/auth/session';
+import { filledForm, readForm, unreadable, refuse, refuseField, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The target of the mailed reset link; the token travels on in a hidden field. */
-export const load: PageServerLoad = ({ url }) => ({ token: url.searchParams.get('token') ?? '' });
+export const load: PageServerLoad = async ({ url }) => ({
+	form: await filledForm(resetPasswordSchema, { token: url.searchParams.get('token') ?? '' })
+});
 
 export const actions: Actions = {
 	default: async ({ request, cookies }) => {
-		const form = await readForm(request);
-		if (!form) return fail(400, { field: null, message: 'The form could not be read.' });
-		if (form.password !== form.confirm) {
-			return fail(422, { field: 'confirm', message: 'The two passwords are not the same.' });
-		}
-		const result = await resetPassword(form.token, form.password);
+		const form = await readForm(request, resetPasswordSchema);
+		if (!form) return unreadable(resetPasswordSchema);
+		if (!form.valid) return refuse(form, 'password', 'confirm');
+		const result = await resetPassword(form.data.token, form.data.password);
 		if (!result.ok) {
-			const field = result.reason === 'invalid' ? result.field : 'token';
-			return fail(result.reason === 'invalid' ? 422 : 400, { field, message: result.message });
+			if (result.reason === 'invalid') {
+				return refuseField(form, result.field, result.message, 422, 'password', 'confirm');
+			}
+			// The link itself is spent or wrong: said about the form, with a way to a new one.
+			return say(form, result.message, 400, 'password', 'confirm');
 		}
 		// Every session of the account has ended, this browser's too.
 		deleteSessionCookie(cookies);

@@ -1,39 +1,44 @@
-import { fail, redirect } from '@sveltejs/kit';
-import { signIn } from '$lib/server/auth/accounts';
-import { readForm } from '$lib/server/auth/form';
+import { redirect } from '@sveltejs/kit';
+import { signInSchema } from '$lib/forms/account';
+import { signIn } from '$lib/server/auth/password';
 import { beginSignIn, cancelSignIn, recordSignInSuccess } from '$lib/server/auth/limits';
 import { homeFor, safeNext } from '$lib/server/auth/redirects';
 import { startSession } from '$lib/server/auth/session';
+import { filledForm, readForm, unreadable, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ locals, url }) => {
+export const load: PageServerLoad = async ({ locals, url }) => {
 	const next = url.searchParams.get('next');
 	if (locals.user) redirect(303, safeNext(next, homeFor(locals.user.role)));
-	return { next: next ? safeNext(next, '') : '', reset: url.searchParams.has('reset') };
+	return {
+		form: await filledForm(signInSchema, { next: next ? safeNext(next, '') : '' }),
+		reset: url.searchParams.has('reset')
+	};
 };
 
 export const actions: Actions = {
 	default: async ({ request, cookies, getClientAddress, url }) => {
-		const form = await readForm(request);
-		if (!form) return fail(400, { values: { email: '' }, message: 'The form could not be read.' });
-		const values = { email: form.email ?? '' };
+		const form = await readForm(request, signInSchema);
+		if (!form) return unreadable(signInSchema);
 
-		const attempt = beginSignIn(getClientAddress(), values.email);
+		const attempt = beginSignIn(getClientAddress(), form.data.email);
 		if (!attempt.allowed) {
 			const minutes = Math.ceil(attempt.retryAfterSeconds / 60);
-			return fail(429, {
-				values,
-				message: `Too many tries. Take a breather and try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`
-			});
+			const text = `Too many tries. Take a breather and try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`;
+			return say(form, text, 429, 'password');
 		}
 
-		const result = await signIn({ email: form.email, password: form.password });
+		const result = await signIn(form.data);
 		if (!result.ok) {
+			// A missing field is not a guess at a password: it does not count towards the limit.
 			if (result.reason === 'invalid') cancelSignIn(attempt);
-			return fail(400, { values, message: result.message });
+			return say(form, result.message, 400, 'password');
 		}
 		recordSignInSuccess(attempt);
 		await startSession(cookies, result.user.id);
-		redirect(303, safeNext(form.next ?? url.searchParams.get('next'), homeFor(result.user.role)));
+		redirect(
+			303,
+			safeNext(form.data.next || url.searchParams.get('next'), homeFor(result.user.role))
+		);
 	}
 };

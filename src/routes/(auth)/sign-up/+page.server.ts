@@ -1,44 +1,38 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
+import { signUpSchema } from '$lib/forms/account';
 import { signUp } from '$lib/server/auth/accounts';
-import { readForm } from '$lib/server/auth/form';
 import { consumeSignUp } from '$lib/server/auth/limits';
 import { homeFor } from '$lib/server/auth/redirects';
 import { startSession } from '$lib/server/auth/session';
+import { emptyForm, readForm, unreadable, refuse, refuseField, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ locals }) => {
+export const load: PageServerLoad = async ({ locals }) => {
 	if (locals.user) redirect(303, homeFor(locals.user.role));
-	return {};
+	return { form: await emptyForm(signUpSchema) };
 };
 
 export const actions: Actions = {
 	default: async ({ request, cookies, getClientAddress }) => {
-		const form = await readForm(request);
-		const empty = { name: '', email: '', role: 'learner' };
-		if (!form)
-			return fail(400, { values: empty, field: null, message: 'The form could not be read.' });
-		const values = {
-			name: form.name ?? '',
-			email: form.email ?? '',
-			role: form.role ?? 'learner'
-		};
+		const form = await readForm(request, signUpSchema);
+		if (!form) return unreadable(signUpSchema);
 
-		const limit = consumeSignUp(getClientAddress(), values.email);
+		const limit = consumeSignUp(getClientAddress(), form.data.email);
 		if (!limit.allowed) {
-			return fail(429, {
-				values,
-				field: null,
-				message: `Too many sign-ups from here. Try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`
-			});
+			const minutes = Math.ceil(limit.retryAfterSeconds / 60);
+			return say(
+				form,
+				`Too many sign-ups from here. Try again in ${minutes} minutes.`,
+				429,
+				'password'
+			);
 		}
+		if (!form.valid) return refuse(form, 'password');
 
-		const result = await signUp({ ...values, password: form.password });
+		const result = await signUp(form.data);
 		if (!result.ok) {
-			return fail(result.reason === 'email-taken' ? 409 : 422, {
-				values,
-				field: result.field,
-				message: result.message
-			});
+			const status = result.reason === 'email-taken' ? 409 : 422;
+			return refuseField(form, result.field, result.message, status, 'password');
 		}
 		// Signed in straight away; the confirmation link can be followed whenever the mail arrives.
 		await startSession(cookies, result.user.id);

@@ -1,12 +1,23 @@
-import { fail, redirect } from '@sveltejs/kit';
-import { changePassword, deleteAccount } from '$lib/server/auth/accounts';
-import { updateSettings } from '$lib/server/study/settings';
-import { readForm } from '$lib/server/auth/form';
+import { redirect } from '@sveltejs/kit';
+import { changePasswordSchema, deleteAccountSchema } from '$lib/forms/account';
+import { settingsSchema } from '$lib/practice/settings';
+import { changePassword } from '$lib/server/auth/password';
 import { requireUser } from '$lib/server/auth/guard';
 import { deleteSessionCookie } from '$lib/server/auth/session';
+import { deleteAccount } from '$lib/server/auth/user';
+import {
+	emptyForm,
+	filledForm,
+	readForm,
+	unreadable,
+	refuse,
+	refuseField,
+	say
+} from '$lib/server/forms';
+import { updateSettings } from '$lib/server/study/settings';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ url }) => {
+export const load: PageServerLoad = async ({ url }) => {
 	const user = requireUser();
 	return {
 		account: {
@@ -15,7 +26,9 @@ export const load: PageServerLoad = ({ url }) => {
 			role: user.role,
 			emailVerified: user.emailVerified
 		},
-		practice: user.settings,
+		practice: await filledForm(settingsSchema, user.settings, 'practice'),
+		password: await emptyForm(changePasswordSchema, 'password'),
+		deletion: await emptyForm(deleteAccountSchema, 'delete'),
 		changed: url.searchParams.get('changed')
 	};
 };
@@ -23,82 +36,45 @@ export const load: PageServerLoad = ({ url }) => {
 export const actions: Actions = {
 	practice: async ({ request }) => {
 		const user = requireUser();
-		const form = await readForm(request);
-		if (!form) {
-			return fail(400, { form: 'practice', field: null, message: 'The form could not be read.' });
-		}
-		const result = await updateSettings(user.id, form);
+		const form = await readForm(request, settingsSchema, 'practice');
+		if (!form) return unreadable(settingsSchema, 'practice');
+		// The typed values go back with the refusal, so the form shows what was sent.
+		if (!form.valid) return refuse(form);
+		const result = await updateSettings(user.id, form.data);
 		if (!result.ok) {
-			// The typed values come back so that the form shows what was sent, not what is stored.
-			return fail(result.reason === 'invalid' ? 422 : 400, {
-				form: 'practice',
-				field: result.reason === 'invalid' ? result.field : null,
-				message: result.message,
-				values: {
-					instrument: form.instrument ?? '',
-					dailyMinutes: form.dailyMinutes ?? '',
-					keyOrder: form.keyOrder ?? '',
-					desiredRetention: form.desiredRetention ?? '',
-					timezone: form.timezone ?? '',
-					digestHour: form.digestHour ?? '',
-					digestEnabled: form.digestEnabled === 'on',
-					dayStartHour: form.dayStartHour ?? '',
-					newPerDay: form.newPerDay ?? ''
-				}
-			});
+			if (result.reason === 'invalid') return refuseField(form, result.field, result.message);
+			return say(form, result.message, 404);
 		}
 		redirect(303, '/settings?changed=practice');
 	},
 
 	password: async ({ request, locals }) => {
 		const user = requireUser();
-		const form = await readForm(request);
-		if (!form) {
-			return fail(400, { form: 'password', field: null, message: 'The form could not be read.' });
-		}
-		if (form.password !== form.confirm) {
-			return fail(422, {
-				form: 'password',
-				field: 'confirm',
-				message: 'The two new passwords are not the same.'
-			});
-		}
-		const result = await changePassword(
-			user.id,
-			form.currentPassword,
-			form.password,
-			locals.session?.id
-		);
+		const form = await readForm(request, changePasswordSchema, 'password');
+		if (!form) return unreadable(changePasswordSchema, 'password');
+		const secrets = ['currentPassword', 'password', 'confirm'] as const;
+		if (!form.valid) return refuse(form, ...secrets);
+		const result = await changePassword(user.id, form.data, locals.session?.id);
 		if (!result.ok) {
-			return fail(result.reason === 'invalid' ? 422 : 400, {
-				form: 'password',
-				field: result.reason === 'invalid' ? result.field : null,
-				message: result.message
-			});
+			if (result.reason === 'invalid') {
+				return refuseField(form, result.field, result.message, 422, ...secrets);
+			}
+			return say(form, result.message, 404, ...secrets);
 		}
 		redirect(303, '/settings?changed=password');
 	},
 
 	delete: async ({ request, cookies }) => {
 		const user = requireUser();
-		const form = await readForm(request);
-		if (!form) {
-			return fail(400, { form: 'delete', field: null, message: 'The form could not be read.' });
-		}
-		if ((form.confirmEmail ?? '').trim().toLowerCase() !== user.email) {
-			return fail(422, {
-				form: 'delete',
-				field: 'confirmEmail',
-				message: 'Type your e-mail address exactly to confirm; nothing was deleted.'
-			});
-		}
-		const result = await deleteAccount(user.id, form.deletePassword);
+		const form = await readForm(request, deleteAccountSchema, 'delete');
+		if (!form) return unreadable(deleteAccountSchema, 'delete');
+		if (!form.valid) return refuse(form, 'deletePassword');
+		const result = await deleteAccount(user, form.data);
 		if (!result.ok) {
-			return fail(result.reason === 'invalid' ? 422 : 400, {
-				form: 'delete',
-				field: result.reason === 'invalid' ? 'deletePassword' : null,
-				message: result.message
-			});
+			if (result.reason === 'invalid') {
+				return refuseField(form, result.field, result.message, 422, 'deletePassword');
+			}
+			return say(form, result.message, 404, 'deletePassword');
 		}
 		deleteSessionCookie(cookies);
 		redirect(303, '/?farewell');

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
-import { computeVariant } from '$lib/music';
 import { apiError, readJsonBody, tooManyRequests } from '$lib/server/http/json';
+import { renderLickVariant } from '$lib/server/music/render';
 import {
 	MAX_TRANSPOSE_BODY_BYTES,
 	readTransposeInput,
@@ -10,11 +10,13 @@ import type { RequestHandler } from './$types';
 
 /**
  * `POST /api/transpose` `{ abc, to?, quality?, instrument?, tritone?, versions? }` → 200
- * `{ abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten }`;
- * `versions` maps a quality to a teacher's hand-written abc for it, which replaces re-mapping.
- * Public (it serves the landing page's try-it box) and limited per client address. 400 unreadable JSON or wrong types,
- * 413 body over 20 KB, 415 not JSON, 422 malformed abc (with line and column) or an unknown key,
- * quality or instrument, 429 too many requests.
+ * `{ abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten,
+ * concertKey, writtenTonic, mode, meter, beatsPerBar, tempo }`; `versions` maps a quality to a
+ * teacher's hand-written abc for it, which replaces re-mapping. Public (it serves the landing
+ * page's try-it box) and limited per client address. 400 unreadable JSON or wrong types, 413
+ * body over 20 KB or an answer over 1 MB, 415 not JSON, 422 malformed abc (with line and column)
+ * or an unknown key, quality or instrument, 429 too many requests, 503 the engine's global budget
+ * is spent for this second.
  */
 export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 	const limit = transposeLimiter().consume(getClientAddress());
@@ -24,23 +26,18 @@ export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 	const input = readTransposeInput(body.value);
 	if (!input.ok) return apiError(input.status, input.message);
 
-	let result: ReturnType<typeof computeVariant>;
-	try {
-		result = computeVariant({ abc: input.abc, versions: input.versions, ...input.options });
-	} catch (e) {
-		// The engine answers bad abc with a result, not a throw; should one slip through, the
-		// person still gets a sentence and a 422 rather than a server error.
-		console.error('transpose: engine threw', e);
-		return apiError(422, 'This lick could not be read; check the notation near its end.');
-	}
-	if (!result.ok) {
-		const { message, ...position } = result.error;
-		return apiError(422, message, position);
-	}
-	const { abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten } =
-		result;
-	return json(
-		{ abc, key, writtenKey, quality, instrument, warnings, notes, devices, handWritten },
-		{ status: 200 }
+	const result = await renderLickVariant(
+		{ abc: input.abc, versions: input.versions },
+		input.options
 	);
+	if (!result.ok) {
+		const { status, message, ok: _, retryAfterSeconds, ...details } = result;
+		return apiError(
+			status,
+			message,
+			{ ...details, ...(retryAfterSeconds ? { retryAfterSeconds } : {}) },
+			retryAfterSeconds ? { 'Retry-After': String(retryAfterSeconds) } : undefined
+		);
+	}
+	return json(result.value, { status: 200 });
 };

@@ -6,4 +6,10 @@ export interface Migration {
 	name: string;
 	up(context: { context: QueryInterface }): Promise<void>;
 	down(context: { context: QueryInterface }): Promise<void>;
+	/**
+	 * True when the migration opens its own transaction (a SQLite table rebuild must switch
+	 * foreign keys off first, which a PRAGMA cannot do inside one). Every other migration runs in
+	 * a transaction the runner opens, and its QueryInterface calls join it by themselves.
+	 */
+	ownTransaction?: boolean;
 }

@@ -31,7 +31,12 @@ export function initEmailToken(sequelize: Sequelize): void {
 	EmailToken.init(
 		{
 			id: { type: DataTypes.STRING(64), primaryKey: true },
-			purpose: { type: DataTypes.ENUM(...TOKEN_PURPOSES), allowNull: false },
+			// A string with a CHECK in the database (migration 0003), never an ENUM.
+			purpose: {
+				type: DataTypes.STRING(16),
+				allowNull: false,
+				validate: { isIn: [TOKEN_PURPOSES as unknown as string[]] }
+			},
 			expiresAt: { type: DataTypes.DATE, allowNull: false },
 			usedAt: { type: DataTypes.DATE, allowNull: true },
 			createdAt: DataTypes.DATE

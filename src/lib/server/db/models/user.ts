@@ -7,8 +7,9 @@ import {
 	type Sequelize
 } from 'sequelize';
 
-export const ROLES = ['learner', 'teacher', 'admin'] as const;
-export type Role = (typeof ROLES)[number];
+import { ROLES, type Role } from '../../../forms/account';
+
+export { ROLES, type Role };
 
 /** An account. Rows never leave `$lib/server`: map them with `toSessionUser` or similar. */
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
@@ -52,7 +53,13 @@ export function initUser(sequelize: Sequelize): void {
 				}
 			},
 			name: { type: DataTypes.STRING(100), allowNull: false },
-			role: { type: DataTypes.ENUM(...ROLES), allowNull: false, defaultValue: 'learner' },
+			// A string with a CHECK in the database (migration 0003), never an ENUM.
+			role: {
+				type: DataTypes.STRING(16),
+				allowNull: false,
+				defaultValue: 'learner',
+				validate: { isIn: [ROLES as unknown as string[]] }
+			},
 			passwordHash: { type: DataTypes.STRING(255), allowNull: false },
 			emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
 			timezone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },

@@ -1,0 +1,70 @@
+import { Session, User } from '../db/models/index';
+import { forgotPasswordSchema, normalizeEmail, resetPasswordSchema } from '../../forms/account';
+import { parseFirst } from '../../forms/parse';
+import { sendMail } from '../mail/index';
+import { passwordResetMail } from '../mail/templates/index';
+import {
+	checkToken,
+	consumeToken,
+	issueToken,
+	linkFor,
+	trySend,
+	type TokenProblem
+} from './email-token';
+import { hashPassword } from './password';
+import { invalid, type Invalid } from './user';
+
+/** Resetting a forgotten password through a mailed link. */
+
+/**
+ * Mail a reset link if the address has an account. The answer is the same either way, so the
+ * form cannot be used to find out who has an account.
+ * @example await requestPasswordReset('ada@example.com') // → { ok: true }
+ */
+export async function requestPasswordReset(
+	emailInput: unknown,
+	now = new Date()
+): Promise<{ ok: true } | Invalid> {
+	const read = parseFirst(forgotPasswordSchema, { email: emailInput });
+	if (!read.ok) return invalid(read.field, read.message);
+	const user = await User.findOne({ where: { email: normalizeEmail(read.value.email) ?? '' } });
+	if (user) {
+		const token = await issueToken(user.id, 'reset', now);
+		const url = linkFor('/reset-password', token);
+		await trySend(() =>
+			sendMail({ to: user.email, ...passwordResetMail({ name: user.name, url }) })
+		);
+	}
+	return { ok: true };
+}
+
+export type ResetPasswordResult = { ok: true; userId: string } | Invalid | TokenProblem;
+
+/**
+ * Set a new password from a reset link. Every session of the account ends, and the address
+ * counts as confirmed (the link reached its mailbox). `confirm`, when given, must match.
+ * @example await resetPassword(token, 'comping-chords-9') // → { ok: true, userId: '…' }
+ */
+export async function resetPassword(
+	token: unknown,
+	password: unknown,
+	now = new Date(),
+	confirm: unknown = password
+): Promise<ResetPasswordResult> {
+	const read = parseFirst(resetPasswordSchema, { token: '', password, confirm });
+	if (!read.ok) return invalid(read.field, read.message);
+	// The form is public and not rate limited: a made-up token is turned away before it can cost
+	// an argon2 hash (19 MiB, tens of milliseconds). The hash stays outside the transaction, which
+	// would otherwise hold SQLite's write lock while it runs.
+	const problem = await checkToken(token, 'reset', now);
+	if (problem) return problem;
+	const passwordHash = await hashPassword(read.value.password);
+	return consumeToken(token, 'reset', now, async (userId, transaction) => {
+		const user = await User.findByPk(userId, { transaction });
+		if (!user) return;
+		user.passwordHash = passwordHash;
+		user.emailVerifiedAt ??= now;
+		await user.save({ transaction });
+		await Session.destroy({ where: { userId }, transaction });
+	});
+}

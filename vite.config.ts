@@ -13,7 +13,18 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					environment: 'node',
-					include: ['tests/unit/**/*.test.ts']
+					include: ['tests/unit/**/*.test.ts'],
+					setupFiles: ['tests/unit/setup.ts']
+				}
+			},
+			{
+				// Component logic: the small modules beside the components, and their markup rendered
+				// by Svelte (no browser needed).
+				extends: './vite.config.ts',
+				test: {
+					name: 'client',
+					environment: 'node',
+					include: ['tests/client/**/*.test.ts']
 				}
 			},
 			{

@@ -8,7 +8,10 @@
  * (JSON in, validation, rate limit, bounded render, JSON out), against a bare `Response` of the
  * same size as a floor.
  * Each figure is the median of several timed batches after a warm-up.
+ * Then the scheduled mails (bench/digest.ts): reminders for 10 000 learners (BENCH_DIGEST_LEARNERS)
+ * composed and handed to the local SMTP stand-in, against the bare handover of one ready-made mail.
  */
+import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
@@ -186,3 +189,39 @@ if (sink === 0) console.log('(nothing computed)');
 
 // The drill's figures: today's queue over 5,000 cards, and review writes under load.
 await import('./drill');
+// Class progress and the heat map over a large review log (bench/classes.ts).
+const { benchClasses } = await import('./classes');
+console.log(['', ...(await benchClasses())].join('\n'));
+// The scheduled mails, in a process of their own so that the peak memory is theirs alone.
+const digestRun = spawnSync(process.execPath, ['--import', 'tsx', 'bench/digest.ts'], {
+	encoding: 'utf8',
+	env: process.env,
+	maxBuffer: 16 * 1024 * 1024
+});
+const digestLine = digestRun.stdout.trim().split('\n').at(-1) ?? '';
+if (digestRun.status !== 0 || !digestLine.startsWith('{')) {
+	console.log(`\nScheduled mails: the benchmark failed\n${digestRun.stderr}`);
+	process.exitCode = 1;
+} else {
+	const d = JSON.parse(digestLine) as {
+		learners: number;
+		sent: number;
+		failed: number;
+		digestMs: number;
+		handoverMs: number;
+		rssBeforeMb: number;
+		digestPeakMb: number;
+		handoverPeakMb: number;
+	};
+	const perSecond = (n: number, ms: number) => (n / (ms / 1000)).toFixed(1);
+	console.log(
+		[
+			'',
+			`Daily reminders for ${d.learners} learners (3 due, 2 new, a week of history each), local SMTP stand-in, pooled transport:`,
+			`  compose + claim + hand over: ${(d.digestMs / 1000).toFixed(1)} s, ${d.sent} sent, ${d.failed} failed: ${perSecond(d.sent, d.digestMs)} mails/s`,
+			`  peak memory (RSS) during the run: ${d.digestPeakMb.toFixed(0)} MB (${d.rssBeforeMb.toFixed(0)} MB before it)`,
+			`  yardstick, one ready-made mail ${d.learners} times through the same pool: ${(d.handoverMs / 1000).toFixed(1)} s, ${perSecond(d.learners, d.handoverMs)} mails/s, peak ${d.handoverPeakMb.toFixed(0)} MB`,
+			`  Ratio reminders / ready-made handover: ${(d.digestMs / d.handoverMs).toFixed(2)}×`
+		].join('\n')
+	);
+}

@@ -6,10 +6,12 @@ import {
 	type ServerInit
 } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { building } from '$app/environment';
+import { building, dev } from '$app/environment';
 import { migrate } from '$lib/server/db/migrate';
 import { startMail, stopMail } from '$lib/server/mail';
 import { closeDb } from '$lib/server/db';
+import { startDigestScheduler, stopDigestScheduler } from '$lib/server/digest/scheduler';
+import { refuseCrossSiteForm } from '$lib/server/http/cross-site';
 import { signInUrl } from '$lib/server/auth/redirects';
 import { refuseNonAdmin } from '$lib/server/admin/api';
 import {
@@ -24,11 +26,25 @@ export const init: ServerInit = async () => {
 	if (building) return;
 	await migrate();
 	await startMail();
-	// adapter-node emits this after SIGTERM/SIGINT once requests have drained; the SMTP stand-in
-	// and the database handle would otherwise keep the process alive.
+	// The scheduled mails run in this process, off the request path (see digest/scheduler.ts).
+	startDigestScheduler();
+	// adapter-node emits this after SIGTERM/SIGINT once requests have drained; the SMTP stand-in,
+	// the mail job and the database handle would otherwise keep the process alive.
 	process.once('sveltekit:shutdown', () => {
-		void stopMail().then(closeDb);
+		void stopDigestScheduler().then(stopMail).then(closeDb);
 	});
+};
+
+/**
+ * Cross-site form posts are refused here rather than by Kit (svelte.config.js), so that the
+ * mail's one-click unsubscribe can be exempt; like Kit's, only outside the dev server.
+ */
+export const handleCrossSiteForms: Handle = async ({ event, resolve }) => {
+	if (!dev) {
+		const refused = refuseCrossSiteForm(event.request, event.url);
+		if (refused) return refused;
+	}
+	return resolve(event);
 };
 
 /** Who is asking: the session cookie's token looked up (hashed) in the database. */
@@ -72,7 +88,7 @@ export const handleRoleGate: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-export const handle = sequence(handleSession, handleRoleGate);
+export const handle = sequence(handleCrossSiteForms, handleSession, handleRoleGate);
 
 /** Unexpected errors: logged in full here, a plain sentence for the person who hit them. */
 export const handleError: HandleServerError = ({ error: caught, event, status, message }) => {

@@ -1,8 +1,7 @@
-import type { SessionUser } from '$lib/server/auth/session';
+import type { ShellUser } from '$lib/ui/shell';
 import type { LayoutServerLoad } from './$types';
 
-/** What every page may know about who is signed in: nothing more than the header needs. */
-export type ShellUser = Pick<SessionUser, 'id' | 'name' | 'email' | 'role'>;
+export type { ShellUser } from '$lib/ui/shell';
 
 export const load: LayoutServerLoad = ({ locals }) => {
 	const u = locals.user;

@@ -83,13 +83,13 @@ test.describe('the try-it box', () => {
 		await expect(page.getByTestId('try-result')).toHaveCount(0);
 	});
 
-	test('shows the lick in all twelve keys, one after another', async ({ page }) => {
+	test('shows the lick in all twelve keys from one request', async ({ page }) => {
 		await openTryIt(page);
 		await page.getByRole('button', { name: 'All twelve keys' }).click();
 		const list = page.getByRole('list', { name: 'The lick in every key' });
 		await expect(list.getByRole('listitem')).toHaveCount(12, { timeout: 20_000 });
 		await expect(list.locator('svg')).toHaveCount(12);
-		await expect(page.getByText('All 12 keys, round the cycle of fourths.')).toBeVisible();
+		await expect(page.getByText(/All 12 keys, round the cycle of fourths/)).toBeVisible();
 	});
 
 	test('plays the lick with a count-in at a low starting volume, and stops', async ({ page }) => {

@@ -108,3 +108,96 @@ for (const view of [
 		});
 	});
 }
+
+test.describe('the try-it box for a guitarist and a horn player', () => {
+	test('guitar with tablature at desktop size', async ({ page }) => {
+		await page.goto('/');
+		await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+		await page.getByLabel('Start from one of ours').selectOption('upstairs');
+		await page.getByLabel('Instrument').selectOption('guitar');
+		await page.getByLabel('Key', { exact: true }).selectOption('E');
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		await expect(page.locator('.abcjs-tab-number').first()).toBeVisible();
+		await settle(page);
+		await page.locator('#try').screenshot({ path: `${dir}/try-it-guitar.png` });
+	});
+
+	test('guitar with tablature on a phone, wrapped a bar a line', async ({ page }) => {
+		await page.setViewportSize({ width: 390, height: 844 });
+		await page.goto('/');
+		await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+		await page.getByLabel('Start from one of ours').selectOption('upstairs');
+		await page.getByLabel('Instrument').selectOption('guitar');
+		await page.getByLabel('Key', { exact: true }).selectOption('E');
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		await expect(page.locator('.abcjs-tab-number').first()).toBeVisible();
+		await settle(page);
+		await page.getByTestId('try-result').screenshot({ path: `${dir}/try-it-guitar-mobile.png` });
+	});
+
+	test('alto saxophone, written key with the concert key beside it', async ({ page }) => {
+		await page.goto('/');
+		await expect(page.getByRole('button', { name: 'Show this key' })).toBeEnabled();
+		await page.getByLabel('Instrument').selectOption('alto-sax');
+		await page.getByLabel('Key', { exact: true }).selectOption('Eb');
+		await page.getByRole('button', { name: 'Show this key' }).click();
+		await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
+		await settle(page);
+		await page.locator('#try').screenshot({ path: `${dir}/try-it-alto.png` });
+	});
+});
+
+/**
+ * The two scheduled mails as a phone shows them, light and dark: the demo school seeded in a
+ * folder of its own, one run of `npm run digest` on a Monday (the summary's day), and the HTML
+ * parts read back from the outbox.
+ */
+test.describe('the scheduled mails at phone width', () => {
+	test.use({ viewport: { width: 390, height: 844 } });
+
+	test('a Daily reminder and a Weekly class summary', async ({ page }) => {
+		test.setTimeout(240_000);
+		const { spawnSync } = await import('node:child_process');
+		const fs = await import('node:fs');
+		const path = await import('node:path');
+		const { simpleParser } = await import('mailparser');
+		const dataDir = path.resolve('tmp/screenshots-mail');
+		fs.rmSync(dataDir, { recursive: true, force: true });
+		const env = { ...process.env, DATA_DIR: dataDir, SMTP_URL: '', DATABASE_URL: '' };
+		for (const args of [['scripts/seed.ts'], ['scripts/digest.ts', '--now', nextMondayEvening()]]) {
+			const run = spawnSync(process.execPath, ['--import', 'tsx', ...args], {
+				env,
+				encoding: 'utf8'
+			});
+			expect(run.status, run.stderr).toBe(0);
+		}
+		const outbox = path.join(dataDir, 'outbox');
+		const mails = await Promise.all(
+			fs.readdirSync(outbox).map(async (n) => simpleParser(fs.readFileSync(path.join(outbox, n))))
+		);
+		const reminder = mails.find((m) => m.subject?.startsWith('Today:'));
+		const summary = mails.find((m) => m.subject?.startsWith('Your classes'));
+		expect(reminder && summary).toBeTruthy();
+		for (const [name, mail] of [
+			['mail-digest', reminder!],
+			['mail-summary', summary!]
+		] as const) {
+			for (const scheme of ['light', 'dark'] as const) {
+				await page.emulateMedia({ colorScheme: scheme });
+				await page.setContent(String(mail.html));
+				await page.screenshot({
+					path: `${dir}/${name}${scheme === 'dark' ? '-dark' : ''}.png`,
+					fullPage: true
+				});
+			}
+		}
+	});
+});
+
+/** 20:00 UTC on the coming Monday: every demo person's hour has come, and it is summary day. */
+function nextMondayEvening(): string {
+	const d = new Date();
+	d.setUTCDate(d.getUTCDate() + ((8 - d.getUTCDay()) % 7 || 7));
+	d.setUTCHours(20, 0, 0, 0);
+	return d.toISOString();
+}

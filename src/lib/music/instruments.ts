@@ -120,7 +120,7 @@ export function fitToRange(concertMidis: readonly number[], id: InstrumentId): R
 			warnings: [
 				{
 					code: 'octave-moved',
-					message: `Written ${by} ${shift > 0 ? 'higher' : 'lower'} than the lick sounds, to fit the ${name}'s written range ${range}.`
+					message: `Played ${by} ${shift > 0 ? 'higher' : 'lower'} than the lick is written, to fit the ${name}'s written range ${range}.`
 				}
 			]
 		};

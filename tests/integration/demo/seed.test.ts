@@ -19,14 +19,13 @@ const snapshot = async () =>
 describe('seedDemo', () => {
 	it('creates the five demo accounts with their roles, all verified', async () => {
 		const report = await seedDemo('demo-password-12', new Date('2026-11-01T08:00:00Z'));
-		expect(report.created).toEqual([
+		// The demo class covers both decks, so the drill's own demo cards add nothing after it.
+		expect(report.created.slice(0, -1)).toEqual([
 			...DEMO_ACCOUNTS.map((account) => account.email),
 			...DEMO_LICKS.map((lick) => `lick:${lick.slug}`),
-			...DEMO_DECKS.map((deck) => `deck:${deck.slug}`),
-			...DEMO_ACCOUNTS.filter((a) => a.role === 'learner').map(
-				(a) => `cards:${a.email}:${DEMO_LICKS.length}`
-			)
+			...DEMO_DECKS.map((deck) => `deck:${deck.slug}`)
 		]);
+		expect(report.created.at(-1)).toMatch(/^history:\d+ sittings, \d+ reviews$/);
 		const rows = await snapshot();
 		expect(rows.map((row) => [row.email, row.role])).toEqual([
 			['admin@example.com', 'admin'],

@@ -85,10 +85,15 @@ describe('account mails', () => {
 		);
 	});
 
-	it('uses the palette colours inline in the HTML part', () => {
+	it('uses the palette colours inline, with a dark-scheme override as its only stylesheet', () => {
 		const { html } = verificationMail({ name: 'Ada', url });
 		for (const colour of ['#0f3d3e', '#f2b134', '#fcfaf5']) expect(html).toContain(colour);
-		expect(html).not.toMatch(/<style|<link/);
+		expect(html).not.toMatch(/<link/);
+		// Clients that drop <style> still get the light design from the inline colours.
+		expect(html.match(/<style>[^<]*<\/style>/g)).toEqual([
+			expect.stringMatching(/^<style>@media \(prefers-color-scheme: dark\)\{/)
+		]);
+		expect(html).toContain('<meta name="color-scheme" content="light dark">');
 	});
 });
 

@@ -123,7 +123,7 @@ describe('chord tones on the chord’s letters', () => {
 			),
 			{ seed: 7, numRuns: 400 }
 		);
-	});
+	}, 60_000);
 });
 
 describe('degrees from a chord’s own tones', () => {

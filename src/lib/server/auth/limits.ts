@@ -1,3 +1,4 @@
+import { getConfig } from '../config';
 import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from './rate-limit';
 
 /**
@@ -31,8 +32,7 @@ export const AUTH_LIMITS = {
 export type AuthLimitName = keyof typeof AUTH_LIMITS;
 
 function scale(): number {
-	const value = Number(process.env.AUTH_LIMIT_SCALE ?? 1);
-	return Number.isFinite(value) && value > 0 ? value : 1;
+	return getConfig().authLimitScale;
 }
 
 let limiters: Record<AuthLimitName, RateLimiter> | null = null;

@@ -86,7 +86,7 @@ function getLucia() {
 		sessionExpiresIn: new TimeSpan(SESSION_DAYS, 'd'),
 		sessionCookie: {
 			name: SESSION_COOKIE_NAME,
-			attributes: { secure: getConfig().production, sameSite: 'lax' }
+			attributes: { secure: getConfig().secureCookies, sameSite: 'lax' }
 		},
 		getUserAttributes: (attributes) => attributes
 	});
@@ -157,12 +157,11 @@ export async function startSession(cookies: CookieJar, userId: string): Promise<
 }
 
 export function setSessionCookie(cookies: CookieJar, token: string, expiresAt: Date): void {
-	const { attributes } = getLucia().createSessionCookie(token);
 	cookies.set(SESSION_COOKIE_NAME, token, {
 		path: '/',
 		httpOnly: true,
 		sameSite: 'lax',
-		secure: attributes.secure ?? false,
+		secure: getConfig().secureCookies,
 		expires: expiresAt
 	});
 }
@@ -172,6 +171,6 @@ export function deleteSessionCookie(cookies: CookieJar): void {
 		path: '/',
 		httpOnly: true,
 		sameSite: 'lax',
-		secure: getConfig().production
+		secure: getConfig().secureCookies
 	});
 }

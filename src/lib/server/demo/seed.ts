@@ -7,6 +7,7 @@ import { DEMO_DECKS, DEMO_LICKS } from '../../demo/licks';
 import { readLickHome } from '../../music/home';
 import type { Transaction } from 'sequelize';
 import { seedDemoPractice } from './practice';
+import { seedDemoHistory } from './history';
 
 /**
  * The demo scenario: an invented evening school, the Lantern Street Jazz Workshop, with one
@@ -83,6 +84,22 @@ export async function seedDemo(password: string, now = new Date()): Promise<Seed
 		const teacher = await User.findOne({ where: { email: TEACHER_EMAIL }, transaction });
 		if (teacher) await seedDemoLibrary(teacher.id, report, transaction);
 	});
+	// The class comes first, so that the demo learners' cards are the class's (with its pace and
+	// keys); the drill's own demo cards then fill in whatever the class does not cover.
+	const teacher = await User.findOne({ where: { email: TEACHER_EMAIL } });
+	if (teacher) {
+		const decks = await Promise.all(
+			DEMO_DECKS.map((d) => Deck.findOne({ where: { ownerId: teacher.id, name: d.title } }))
+		);
+		const history = await seedDemoHistory(
+			TEACHER_EMAIL,
+			decks.filter((d) => d !== null).map((d) => d.id),
+			now
+		);
+		if (!history.skipped) {
+			report.created.push(`history:${history.sittings} sittings, ${history.reviews} reviews`);
+		}
+	}
 	const learners = DEMO_ACCOUNTS.filter((a) => a.role === 'learner').map((a) => a.email);
 	for (const { email, created } of await seedDemoPractice(TEACHER_EMAIL, learners, now)) {
 		if (created > 0) report.created.push(`cards:${email}:${created}`);

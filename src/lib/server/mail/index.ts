@@ -109,6 +109,45 @@ function checkInput(mail: MailInput): void {
 	}
 }
 
+/** A pooled sender for many mails in a row, apart from the transport web requests use. */
+export interface BulkMailer {
+	send(mail: MailInput): Promise<void>;
+	close(): void;
+}
+
+/**
+ * Open a pooled transport to the same service `sendMail` uses (the local stand-in is started
+ * first when needed). The scheduled mails go through their own pool, so that a batch of digests
+ * waiting on a slow service never queues a sign-up's verification mail behind it.
+ * @example const bulk = await openBulkMailer(); await bulk.send(mail); bulk.close()
+ */
+export async function openBulkMailer(
+	options: { maxConnections?: number } = {}
+): Promise<BulkMailer> {
+	await startMail();
+	const { status } = running!;
+	const pool = { maxConnections: options.maxConnections ?? 3 };
+	const { smtpUrl, mailFrom } = getConfig();
+	const transport =
+		status.mode === 'local'
+			? createMailTransport({ mode: 'local', port: status.port }, { pool })
+			: createMailTransport({ mode: 'smtp', url: smtpUrl! }, { pool });
+	return {
+		async send(mail) {
+			checkInput(mail);
+			await transport.sendMail({
+				from: mailFrom,
+				to: mail.to,
+				subject: mail.subject,
+				html: mail.html,
+				text: mail.text,
+				headers: mail.headers
+			});
+		},
+		close: () => transport.close()
+	};
+}
+
 /**
  * Send one mail from MAIL_FROM, starting mail first when nobody has yet.
  * @example await sendMail({ to: 'ada@example.com', ...verificationMail({ name: 'Ada', url }) })

@@ -10,18 +10,34 @@ export type MailTarget = { mode: 'smtp'; url: string } | { mode: 'local'; port: 
  * A nodemailer transport for the target.
  * @example createMailTransport({ mode: 'local', port: 2525 }) // SMTP to 127.0.0.1:2525, no TLS
  */
-export function createMailTransport(target: MailTarget): Transporter {
+export function createMailTransport(
+	target: MailTarget,
+	options: TransportOptions = {}
+): Transporter {
+	// A pool keeps a few connections open and sends many mails over each: the scheduled mails
+	// use one; a web request's single mail does not need it.
+	const pool = options.pool
+		? { pool: true as const, maxConnections: options.pool.maxConnections, maxMessages: 500 }
+		: {};
 	if (target.mode === 'smtp') {
 		// nodemailer reads host, port, credentials and `secure` (smtps:) from the URL.
-		return nodemailer.createTransport(target.url);
+		return options.pool
+			? nodemailer.createTransport({ url: target.url, ...pool })
+			: nodemailer.createTransport(target.url);
 	}
 	return nodemailer.createTransport({
 		host: '127.0.0.1',
 		port: target.port,
 		secure: false,
 		// The stand-in offers no STARTTLS; plain SMTP never leaves the machine.
-		ignoreTLS: true
+		ignoreTLS: true,
+		...pool
 	});
+}
+
+export interface TransportOptions {
+	/** Keep up to `maxConnections` connections open and reuse them (the scheduled mails). */
+	pool?: { maxConnections: number };
 }
 
 /**

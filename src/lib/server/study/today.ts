@@ -106,13 +106,8 @@ function sourceOf(a: Assignment & { ClassGroup?: ClassGroup }, day: string): Que
 	return { newPerDay: a.newPerDay, active };
 }
 
-/**
- * `GET /api/drill/today` for the actor.
- * @example await buildToday(me, new Date()) // { day: '2026-03-01', items: [ … ], counts, backlog }
- */
-export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> {
-	const learner = await loadLearner(actor);
-	if (!learner) throw new StudyError(404, 'No such learner.');
+/** Today's queue for a loaded learner, without rendering any prompt. */
+async function planToday(learner: Learner, now: Date) {
 	const { day, end } = learnerDay(learner, now);
 	const db = getDb();
 	const q = <T extends object>(sql: string, replacements: Record<string, unknown>) =>
@@ -149,6 +144,7 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 		const key = r.assignment_id ?? '';
 		introducedToday.set(key, (introducedToday.get(key) ?? 0) + 1);
 	}
+	const timings = times.map((t) => (t.reveal_ms ?? 0) + (t.grade_ms ?? 0));
 	const queue = buildQueue({
 		now,
 		day,
@@ -160,11 +156,56 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 		licksIntroducedToday: new Set(introduced.map((r) => r.lick_id)),
 		licksReviewedToday: new Set(reviewedLicks.map((r) => r.lick_id)),
 		dailyMinutes: learner.dailyMinutes,
-		secondsPerCard: estimateSecondsPerCard(
-			times.map((t) => (t.reveal_ms ?? 0) + (t.grade_ms ?? 0))
-		),
+		secondsPerCard: estimateSecondsPerCard(timings),
 		desiredRetention: learner.desiredRetention
 	});
+	return {
+		day,
+		end,
+		queue,
+		assignments,
+		doneToday: Number(done[0]?.n ?? 0),
+		/** Whether the minutes come from the learner's own prompt times (five or more). */
+		timed: timings.filter((ms) => ms > 0).length >= 5
+	};
+}
+
+/**
+ * The figures of today's queue without its prompts: what the drill will show, for the digest.
+ * @example await todayCounts(userId, new Date()) // { day: '2026-03-01', due: 12, new: 3, estimatedMinutes: 9, … }
+ */
+export async function todayCounts(
+	userId: string,
+	now: Date
+): Promise<{
+	day: string;
+	due: number;
+	new: number;
+	estimatedMinutes: number;
+	doneToday: number;
+	timed: boolean;
+}> {
+	const learner = await loadLearner(userId);
+	if (!learner) throw new StudyError(404, 'No such learner.');
+	const { day, queue, doneToday, timed } = await planToday(learner, now);
+	return {
+		day,
+		due: queue.due,
+		new: queue.new,
+		estimatedMinutes: queue.estimatedMinutes,
+		doneToday,
+		timed
+	};
+}
+
+/**
+ * `GET /api/drill/today` for the actor.
+ * @example await buildToday(me, new Date()) // { day: '2026-03-01', items: [ … ], counts, backlog }
+ */
+export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> {
+	const learner = await loadLearner(actor);
+	if (!learner) throw new StudyError(404, 'No such learner.');
+	const { day, end, queue, assignments, doneToday: done } = await planToday(learner, now);
 	const items = await promptsFor(
 		learner,
 		queue.entries.map((e) => e.card as LoadedCard),
@@ -180,7 +221,7 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 			due: items.filter((i) => !i.isNew).length,
 			new: items.filter((i) => i.isNew).length,
 			estimatedMinutes: queue.estimatedMinutes,
-			doneToday: Number(done[0]?.n ?? 0)
+			doneToday: done
 		},
 		backlog: { overdue: queue.overdue, catchUpDays: queue.catchUpDays, dailyCap: queue.dailyCap },
 		dailyMinutes: learner.dailyMinutes

@@ -15,11 +15,23 @@ import {
 	say
 } from '$lib/server/forms';
 import { updateSettings } from '$lib/server/study/settings';
+import { readMailChoices, setSummaryChoice } from '$lib/server/digest/choices';
+import { summaryChoiceSchema } from '$lib/forms/summary-choice';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const user = requireUser();
+	// The Weekly class summary is a teacher's mail; learners see only the Daily reminder.
+	const teaches = user.role === 'teacher' || user.role === 'admin';
+	const choices = teaches ? await readMailChoices(user.id) : null;
 	return {
+		summaryForm: choices
+			? await filledForm(
+					summaryChoiceSchema,
+					{ summaryEnabled: choices.summaryEnabled, summaryWeekday: choices.summaryWeekday },
+					'summary'
+				)
+			: null,
 		account: {
 			name: user.name,
 			email: user.email,
@@ -46,6 +58,18 @@ export const actions: Actions = {
 			return say(form, result.message, 404);
 		}
 		redirect(303, '/settings?changed=practice');
+	},
+
+	summary: async ({ request }) => {
+		const user = requireUser();
+		const form = await readForm(request, summaryChoiceSchema, 'summary');
+		if (!form) return unreadable(summaryChoiceSchema, 'summary');
+		if (user.role !== 'teacher' && user.role !== 'admin') {
+			return say(form, 'The Weekly class summary is for teachers.', 403);
+		}
+		if (!form.valid) return refuse(form);
+		await setSummaryChoice(user.id, form.data);
+		redirect(303, '/settings?changed=summary');
 	},
 
 	password: async ({ request, locals }) => {

@@ -38,7 +38,6 @@ const headed = noise.map((n) => 'X:1\nK:C\n' + n);
 
 describe('fuzzing the abc reader', () => {
 	it('ends every malformed input in an error result or a valid result, never an exception', () => {
-		const started = performance.now();
 		let errors = 0;
 		fc.assert(
 			fc.property(
@@ -72,9 +71,8 @@ describe('fuzzing the abc reader', () => {
 			),
 			{ numRuns: 3000, seed: 424242 }
 		);
-		// both outcomes occur, and the whole run stays within a few seconds
+		// Both outcomes occur. How long the reader takes is measured by `npm run bench`, never here.
 		expect(errors).toBeGreaterThan(100);
 		expect(errors).toBeLessThan(3000);
-		expect(performance.now() - started).toBeLessThan(8000);
 	});
 });

@@ -2,6 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { POST } from '../../../../src/routes/api/transpose/+server';
 import { configureTransposeLimit } from '../../../../src/lib/server/music/transpose-request';
+import { configureEngineBudget } from '../../../../src/lib/server/music/render';
 
 type Event = Parameters<typeof POST>[0];
 const call = async (
@@ -25,7 +26,11 @@ const call = async (
 const LICK = 'X:1\nT:Lick\nM:4/4\nL:1/8\nK:Bb\n"Bb7"B,DFA _A=GFD|\n';
 
 describe('POST /api/transpose', () => {
-	beforeEach(() => configureTransposeLimit({ max: 1000, windowMs: 60_000 }));
+	beforeEach(() => {
+		configureTransposeLimit({ max: 1000, windowMs: 60_000 });
+		// The global engine budget has its own test (transpose-grid.test.ts): out of the way here.
+		configureEngineBudget(1e9);
+	});
 
 	it('answers 200 with the variant, its key, quality, instrument, warnings and notes', async () => {
 		const r = await call({ abc: LICK, to: 'C' });

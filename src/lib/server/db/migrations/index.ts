@@ -3,6 +3,7 @@ import { accounts } from './0001-accounts';
 import { coreLoop } from './0002-core-loop';
 import { settingsColumns } from './0003-settings-columns';
 import { checkConstraints } from './0003-check-constraints';
+import { mailChoices } from './0040-mail-choices';
 
 export type { Migration } from './types';
 
@@ -10,4 +11,10 @@ export type { Migration } from './types';
  * Every migration, in order. An explicit list rather than a glob so that the Vite build, vitest
  * and tsx scripts all run the same set. Add new ones at the end; never reorder or rename.
  */
-export const migrations: Migration[] = [accounts, coreLoop, settingsColumns, checkConstraints];
+export const migrations: Migration[] = [
+	accounts,
+	coreLoop,
+	settingsColumns,
+	checkConstraints,
+	mailChoices
+];

@@ -7,7 +7,6 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
-import type { Assignment } from './assignment';
 import type { Lick } from './lick';
 import type { User } from './user';
 

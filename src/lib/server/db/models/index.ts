@@ -96,6 +96,7 @@ export function initModels(sequelize: Sequelize): void {
 	owns(ClassGroup, ClassMember, 'classId');
 	owns(User, ClassMember, 'userId');
 	owns(ClassGroup, ClassInvitation, 'classId');
+	owns(User, ClassInvitation, 'invitedById');
 	owns(ClassGroup, Assignment, 'classId');
 	owns(Deck, Assignment, 'deckId');
 

@@ -36,6 +36,12 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	 * stored: loose JSON read through `settingsOf` in `$lib/server/study/settings.ts`.
 	 */
 	declare settings: CreationOptional<Record<string, unknown>>;
+	/** Whether a teacher gets the weekly class summary. */
+	declare summaryEnabled: CreationOptional<boolean>;
+	/** ISO weekday (1 Monday … 7 Sunday) of the weekly summary. */
+	declare summaryWeekday: CreationOptional<number>;
+	/** Key that signs this person's unsubscribe links; null until a scheduled mail needs one. */
+	declare mailSecret: CreationOptional<string | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -67,6 +73,9 @@ export function initUser(sequelize: Sequelize): void {
 			digestEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
 			dayStartHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 4 },
 			settings: { type: DataTypes.JSON, allowNull: false, defaultValue: {} },
+			summaryEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+			summaryWeekday: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+			mailSecret: { type: DataTypes.STRING(64), allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

@@ -1,4 +1,5 @@
 export { verificationMail, passwordResetMail, type AccountMailInput } from './account';
+export { classInvitationMail, type ClassInvitationMailInput } from './class';
 export {
 	renderMail,
 	checkMailUrl,

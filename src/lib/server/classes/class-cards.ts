@@ -1,0 +1,134 @@
+import { Op, QueryTypes, literal, type Transaction } from 'sequelize';
+import { getDb } from '../db/index';
+import { Card } from '../db/models/index';
+
+/**
+ * The cards a class makes, per the drill contract: every member × deck lick × (home quality +
+ * the assignment's qualities), inserted as new (state 0, due now) or ignored when the learner
+ * already has that (user, lick, quality) card. Stopping a source retires its still-new cards;
+ * cards already introduced, and every review, stay.
+ */
+
+/** Room between two licks' positions, so each quality of a lick gets its own slot. */
+const QUALITY_SLOTS = 16;
+const CHUNK = 400;
+
+interface DeckLickRow {
+	lick_id: string;
+	position: number;
+	home_quality: string;
+}
+
+/**
+ * Create the cards of one assignment for `userIds` (insert-or-ignore), and put back to work any of
+ * this assignment's new cards that were retired (a learner who left and came back).
+ * @example await createAssignmentCards({ id, deckId, qualities: ['m7'] }, [learnerId], now, t) // 8 for 4 licks
+ */
+export async function createAssignmentCards(
+	assignment: { id: string; deckId: string; qualities: string[] },
+	userIds: string[],
+	now: Date,
+	transaction: Transaction
+): Promise<number> {
+	if (userIds.length === 0) return 0;
+	const licks = await getDb().query<DeckLickRow>(
+		`SELECT dl.lick_id, dl.position, l.home_quality
+		   FROM deck_licks dl JOIN licks l ON l.id = dl.lick_id
+		  WHERE dl.deck_id = :deckId
+		  ORDER BY dl.position, dl.id`,
+		{ replacements: { deckId: assignment.deckId }, type: QueryTypes.SELECT, transaction }
+	);
+	const rows: Array<{
+		userId: string;
+		lickId: string;
+		quality: string;
+		assignmentId: string;
+		newPosition: number;
+		due: Date;
+	}> = [];
+	for (const userId of userIds) {
+		licks.forEach((lick, index) => {
+			const qualities = [
+				lick.home_quality,
+				...assignment.qualities.filter((q) => q !== lick.home_quality)
+			];
+			qualities.forEach((quality, slot) => {
+				rows.push({
+					userId,
+					lickId: lick.lick_id,
+					quality,
+					assignmentId: assignment.id,
+					// Deck order first; a lick's qualities one after another (the drill spreads them).
+					newPosition: index * QUALITY_SLOTS + slot,
+					due: now
+				});
+			});
+		});
+	}
+	for (let i = 0; i < rows.length; i += CHUNK) {
+		// INSERT OR IGNORE on SQLite, ON CONFLICT DO NOTHING on PostgreSQL: the unique
+		// (user, lick, quality) decides, so two processes cannot make a card twice.
+		await Card.bulkCreate(rows.slice(i, i + CHUNK), { ignoreDuplicates: true, transaction });
+	}
+	await Card.update(
+		{ retiredAt: null, version: literal('version + 1') as unknown as number },
+		{
+			where: {
+				assignmentId: assignment.id,
+				userId: { [Op.in]: userIds },
+				state: 0,
+				introducedDay: null,
+				retiredAt: { [Op.ne]: null }
+			},
+			transaction
+		}
+	);
+	return rows.length;
+}
+
+/**
+ * Retire the still-new cards of the given assignments (all their learners, or only `userIds`).
+ * @example await retireNewCards([assignmentId], null, now, t) // number of cards retired
+ */
+export async function retireNewCards(
+	assignmentIds: string[],
+	userIds: string[] | null,
+	now: Date,
+	transaction: Transaction
+): Promise<number> {
+	if (assignmentIds.length === 0) return 0;
+	const [count] = await Card.update(
+		{ retiredAt: now, version: literal('version + 1') as unknown as number },
+		{
+			where: {
+				assignmentId: { [Op.in]: assignmentIds },
+				...(userIds ? { userId: { [Op.in]: userIds } } : {}),
+				state: 0,
+				introducedDay: null,
+				retiredAt: null
+			},
+			transaction
+		}
+	);
+	return count;
+}
+
+/**
+ * Retire an assignment's still-new cards of qualities it no longer asks for (a lick's home
+ * quality is always kept).
+ */
+export async function retireDroppedQualities(
+	assignmentId: string,
+	qualities: string[],
+	now: Date,
+	transaction: Transaction
+): Promise<void> {
+	const keep = qualities.length ? qualities : ['-'];
+	await getDb().query(
+		`UPDATE cards SET retired_at = :now, version = version + 1
+		  WHERE assignment_id = :assignmentId AND state = 0 AND introduced_day IS NULL
+		    AND retired_at IS NULL AND quality NOT IN (:keep)
+		    AND quality <> (SELECT l.home_quality FROM licks l WHERE l.id = cards.lick_id)`,
+		{ replacements: { now, assignmentId, keep }, transaction }
+	);
+}

@@ -1,5 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { newAccount, signInAsNew, signInAsNewAdmin, signUpViaApi } from './support/accounts';
+import { nextRecall, revealAndGrade, seedDemo, signInAsDemo } from './support/drill';
 
 /**
  * Screenshots for the README (docs/screenshots/). Run on demand, since they rewrite tracked
@@ -13,9 +14,17 @@ async function settle(page: Page) {
 	await page.waitForLoadState('networkidle');
 }
 
+test.beforeAll(() => seedDemo());
+
 for (const view of [
-	{ suffix: '', width: 1280, height: 800, scheme: 'light' as const },
-	{ suffix: '-mobile-dark', width: 390, height: 844, scheme: 'dark' as const }
+	{ suffix: '', width: 1280, height: 800, scheme: 'light' as const, learner: 'alto@example.com' },
+	{
+		suffix: '-mobile-dark',
+		width: 390,
+		height: 844,
+		scheme: 'dark' as const,
+		learner: 'guitar@example.com'
+	}
 ]) {
 	test.describe(`at ${view.width}px in ${view.scheme}`, () => {
 		test.use({ viewport: { width: view.width, height: view.height }, colorScheme: view.scheme });
@@ -76,6 +85,34 @@ for (const view of [
 			await expect(page.getByRole('link', { name: /Confirm your e-mail/ }).nth(2)).toBeVisible();
 			await settle(page);
 			await page.screenshot({ path: `${dir}/admin-outbox${view.suffix}.png` });
+		});
+
+		test('the drill: a prompt, its reveal, the summary and the progress page', async ({ page }) => {
+			test.setTimeout(120_000);
+			await signInAsDemo(page, view.learner);
+			await page.goto('/drill');
+			await page.getByRole('button', { name: 'Start the drill' }).click();
+			expect(await nextRecall(page)).toBeTruthy();
+			await settle(page);
+			await page.screenshot({ path: `${dir}/drill-prompt${view.suffix}.png` });
+
+			await page.keyboard.press('Space');
+			await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
+			await settle(page);
+			await page.screenshot({ path: `${dir}/drill-reveal${view.suffix}.png` });
+
+			await page.keyboard.press('4');
+			for (let i = 0; i < 30; i++) {
+				if (!(await nextRecall(page))) break;
+				await revealAndGrade(page, 4);
+			}
+			await expect(page.getByTestId('summary-streak')).toHaveText(/^\d+ days?$/);
+			await settle(page);
+			await page.screenshot({ path: `${dir}/drill-summary${view.suffix}.png`, fullPage: true });
+
+			await page.goto('/progress');
+			await settle(page);
+			await page.screenshot({ path: `${dir}/progress${view.suffix}.png`, fullPage: true });
 		});
 	});
 }

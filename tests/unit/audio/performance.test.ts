@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
+	buildChangesPerformance,
 	buildPerformance,
+	chordSpans,
 	PerformanceError,
 	shellVoicing,
 	swingBeats,
@@ -117,5 +119,106 @@ describe('buildPerformance', () => {
 		expect(() => buildPerformance(bad, { bpm: 120, swingRatio: 2, countInBeats: 0 })).toThrow(
 			/positive length/
 		);
+	});
+});
+
+describe('loop lengths', () => {
+	it('rounds a pass up to whole bars so the next pass starts on a downbeat', () => {
+		// Six eighths in 4/4 at 120 bpm: one bar of 2 s, after a 2 s count-in.
+		const notes = Array.from({ length: 6 }, (_, i) => ({
+			midi: 60 + i,
+			start: i * eighth,
+			duration: eighth,
+			chord: 'C7'
+		}));
+		const p = buildPerformance(notes, { bpm: 120, swingRatio: 2, countInBeats: 4 });
+		expect([p.countInSeconds, p.loopSeconds]).toEqual([2, 2]);
+		const waltz = buildPerformance(notes, {
+			bpm: 120,
+			swingRatio: 2,
+			countInBeats: 3,
+			barBeats: 3
+		});
+		expect([waltz.countInSeconds, waltz.loopSeconds]).toEqual([1.5, 1.5]);
+	});
+
+	it('refuses a bar of no beats', () => {
+		expect(() =>
+			buildPerformance([], { bpm: 120, swingRatio: 2, countInBeats: 0, barBeats: 0 })
+		).toThrow(PerformanceError);
+	});
+});
+
+describe('chordSpans', () => {
+	it('holds each chord from its first note to the next chord, the last to the end of its bar', () => {
+		const notes: PerformanceNote[] = [
+			{ midi: 62, start: eighth, duration: eighth, chord: 'Dm7' },
+			{ midi: 65, start: 2 * eighth, duration: eighth, chord: 'Dm7' },
+			{ midi: 67, start: 0.5, duration: eighth, chord: 'G7' },
+			{ midi: 64, start: 1, duration: 0.25, chord: 'Cmaj7' }
+		];
+		expect(chordSpans(notes)).toEqual([
+			{ symbol: 'Dm7', start: 0, duration: 0.5 },
+			{ symbol: 'G7', start: 0.5, duration: 0.5 },
+			{ symbol: 'Cmaj7', start: 1, duration: 1 }
+		]);
+	});
+
+	it('leaves out notes before any chord and symbols that name no chord', () => {
+		const notes: PerformanceNote[] = [
+			{ midi: 60, start: 0, duration: eighth, chord: null },
+			{ midi: 60, start: eighth, duration: eighth, chord: 'N.C.' },
+			{ midi: 60, start: 0.25, duration: eighth, chord: 'F7' }
+		];
+		expect(chordSpans(notes)).toEqual([{ symbol: 'F7', start: 0, duration: 1 }]);
+	});
+});
+
+describe('buildChangesPerformance', () => {
+	it('plays root and fifth in the bass and comps the guide tones on 1 and the and of 2', () => {
+		// Chord tones from tonal 6.5.1 Chord.get (C7: C E G Bb); the comping figure is common practice.
+		const p = buildChangesPerformance([{ symbol: 'C7', start: 0, duration: 1 }], {
+			bpm: 60,
+			swingRatio: 1,
+			countInBeats: 0
+		});
+		expect(p.events.map((e) => [e.time, e.midi, e.duration])).toEqual([
+			[0, [36], 2],
+			[0, [52, 58], 1],
+			[1.5, [52, 58], 1],
+			[2, [43], 2]
+		]);
+		expect(p.loopSeconds).toBe(4);
+		expect(p.events.every((e) => e.part === 'chord')).toBe(true);
+	});
+
+	it('walks to the diminished fifth under a half-diminished chord and comps again at each change', () => {
+		// Dm7b5: D F Ab C (tonal 6.5.1 Chord.get).
+		const p = buildChangesPerformance(
+			[
+				{ symbol: 'Dm7b5', start: 0, duration: 0.5 },
+				{ symbol: 'G7', start: 0.5, duration: 0.5 }
+			],
+			{ bpm: 60, swingRatio: 2, countInBeats: 2 }
+		);
+		const bass = p.events.filter((e) => e.midi.length === 1 && e.part === 'chord');
+		expect(bass.map((e) => [e.time, e.midi[0]])).toEqual([
+			[2, 38],
+			[4, 43]
+		]);
+		const comp = p.events.filter((e) => e.midi.length > 1);
+		// The and of 2 swung at 2:1 falls at 1 + 2/3 beats.
+		expect(comp.map((e) => e.time)).toEqual([2, 2 + 1 + 2 / 3, 4].map((t) => expect.closeTo(t, 9)));
+		expect(p.events.filter((e) => e.part === 'click')).toHaveLength(2);
+	});
+
+	it('refuses a chord without a length', () => {
+		expect(() =>
+			buildChangesPerformance([{ symbol: 'C7', start: 0, duration: 0 }], {
+				bpm: 120,
+				swingRatio: 2,
+				countInBeats: 0
+			})
+		).toThrow(/positive length/);
 	});
 });

@@ -58,7 +58,12 @@ test('a learner is refused the teacher and admin pages with 403', async ({ page,
 	for (const path of ['/teach', '/admin', '/admin/outbox']) {
 		const response = await page.goto(path);
 		expect(response?.status(), path).toBe(403);
-		await expect(page.getByRole('heading', { level: 1 })).toHaveText(/This page is for/);
+		// Refused inside the site shell: the header's menu, a heading and the reason.
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(
+			'This page is not open to your account'
+		);
+		await expect(page.getByRole('main')).toContainText(/This page is for/);
+		await expect(page.getByRole('link', { name: 'Settings' })).toBeVisible();
 	}
 	const api = await page.request.get('/api/admin/outbox');
 	expect(api.status()).toBe(403);

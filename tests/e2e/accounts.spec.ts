@@ -84,7 +84,7 @@ test('a teacher sees the Teaching link and an honest empty studio', async ({ pag
 	const nav = page.getByRole('navigation', { name: 'Main' });
 	await expect(nav.getByRole('link', { name: 'Teaching' })).toHaveAttribute('aria-current', 'page');
 	await expect(nav.getByRole('link', { name: 'Admin' })).toHaveCount(0);
-	await expect(page.getByText('Your classes will be listed here')).toBeVisible();
+	await expect(page.getByRole('link', { name: 'Open your classes' })).toBeVisible();
 	await expect(page.getByText('0 licks in your library, 0 decks')).toBeVisible();
 	await expect(nav.getByRole('link', { name: 'Library' })).toBeVisible();
 });

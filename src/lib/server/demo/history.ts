@@ -26,7 +26,8 @@ import { settingsOf } from '../study/settings';
 import type { Role } from '../db/models/index';
 
 export const DEMO_CLASS_NAME = 'Tuesday evening combo';
-/** Days of history before the seeding day. */
+/** Days of history before the seeding day. The second deck starts six days before it, at one new
+ * card a day over two qualities, so every demo learner still has new licks waiting on first start. */
 export const HISTORY_DAYS = 24;
 
 interface Habit {
@@ -123,7 +124,7 @@ export async function seedDemoHistory(
 		cls.id,
 		{
 			deckId: deckIds[1],
-			startDate: addDays(firstDay, 10),
+			startDate: addDays(firstDay, HISTORY_DAYS - 6),
 			newPerDay: 1,
 			qualities: ['m7'],
 			targetTempo: 132

@@ -23,6 +23,7 @@ import { QUALITY_IDS, type QualityId } from '../src/lib/music/types';
 import { POST as gridRoute } from '../src/routes/api/transpose/grid/+server';
 import { configureTransposeLimit } from '../src/lib/server/music/transpose-request';
 import { configureEngineBudget } from '../src/lib/server/music/render';
+import { benchLibrary } from './library';
 
 const LICK = readFileSync(
 	fileURLToPath(new URL('../tests/fixtures/licks/bench-four-bars.abc', import.meta.url)),
@@ -187,6 +188,8 @@ const lines = [
 console.log(lines.join('\n'));
 if (sink === 0) console.log('(nothing computed)');
 
+console.log('');
+console.log((await benchLibrary()).join('\n'));
 // The drill's figures: today's queue over 5,000 cards, and review writes under load.
 await import('./drill');
 // Class progress and the heat map over a large review log (bench/classes.ts).

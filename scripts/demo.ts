@@ -2,6 +2,7 @@
 import { existsSync, statSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import { spawnSync, spawn } from 'node:child_process';
+import { DEMO_ACCOUNTS } from '../src/lib/server/demo/seed';
 
 const root = path.resolve(import.meta.dirname, '..');
 const port = process.env.PORT || '3000';
@@ -31,7 +32,42 @@ const stale =
 	!existsSync(buildEntry) ||
 	Math.max(newestMtime(path.join(root, 'src')), newestMtime(path.join(root, 'static'))) >
 		statSync(buildEntry).mtimeMs;
-if (stale) run('npx', ['vite', 'build', '--logLevel', 'warn']);
+if (stale) build();
+
+/**
+ * The production build, quietly: its chunk-size warnings and "run npm run preview" advice are
+ * for developers, not for someone trying the demo. Shown in full only when the build fails.
+ */
+function build(): void {
+	console.log('Building the app (the first run, or after a change: about a minute)…');
+	const result = spawnSync('npx', ['vite', 'build', '--logLevel', 'error'], {
+		cwd: root,
+		env: process.env,
+		encoding: 'utf8',
+		maxBuffer: 64 * 1024 * 1024
+	});
+	if (result.status !== 0) {
+		process.stdout.write(result.stdout ?? '');
+		process.stderr.write(result.stderr ?? '');
+		console.error('The build failed; the messages above say why.');
+		process.exit(result.status ?? 1);
+	}
+}
+
+/** Who to sign in as: the seeded accounts and their shared password. */
+function printAccounts(): void {
+	const password = process.env.DEMO_PASSWORD || 'demo-password-12';
+	const width = Math.max(...DEMO_ACCOUNTS.map((a) => a.email.length));
+	console.log('');
+	console.log(`Twelvefold demo on ${process.env.ORIGIN}`);
+	console.log(`Sign in with any of these accounts; the password is ${password}`);
+	for (const account of DEMO_ACCOUNTS) {
+		console.log(`  ${account.email.padEnd(width)}  ${account.role.padEnd(8)} ${account.name}`);
+	}
+	console.log('');
+}
+
+printAccounts();
 
 const server = spawn('node', ['scripts/start.js'], {
 	stdio: 'inherit',

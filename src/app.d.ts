@@ -9,6 +9,8 @@ declare global {
 		}
 		interface Error {
 			message: string;
+			/** The status actually answered, when the edge changes Kit's (a database failure: 503). */
+			status?: number;
 		}
 	}
 }

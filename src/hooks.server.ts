@@ -15,6 +15,17 @@ import { refuseCrossSiteForm } from '$lib/server/http/cross-site';
 import { signInUrl } from '$lib/server/auth/redirects';
 import { refuseNonAdmin } from '$lib/server/admin/api';
 import {
+	DATABASE_FAILURE_MESSAGE,
+	handleActionNames,
+	handleDatabaseFailure,
+	handleRequestOrigin,
+	handleSecurityHeaders,
+	handleTextFields,
+	isDatabaseFailure,
+	noteDatabaseFailure
+} from '$lib/server/http/edge';
+import { isPageRoute } from '$lib/server/http/routes';
+import {
 	deleteSessionCookie,
 	readSessionToken,
 	setSessionCookie,
@@ -63,32 +74,62 @@ export const handleSession: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
+/** What the role gate says about a page route for this user, before any page code runs. */
+function pageGate(id: string, user: App.Locals['user']): 'sign-in' | string | null {
+	const needs = id.startsWith('/(admin)')
+		? 'admin'
+		: id.startsWith('/(teach)')
+			? 'teacher'
+			: id.startsWith('/(learn)')
+				? 'learner'
+				: null;
+	if (!needs) return null;
+	if (!user) return 'sign-in';
+	if (needs === 'admin' && user.role !== 'admin') return 'This page is for admins.';
+	if (needs === 'teacher' && user.role !== 'teacher' && user.role !== 'admin') {
+		return 'This page is for teachers.';
+	}
+	return null;
+}
+
 /**
  * Role gates by route group. Route ids keep the group name, so `/(teach)/…` covers every page
  * of the group whichever layout or load runs. Endpoints under /api check roles themselves too.
+ *
+ * A refused page opened in the browser is still rendered, so that the refusal shows in the site
+ * shell with a way back: the group's layout load (and each page's own `requireRole`) throws the
+ * 403 inside the app. The gate stays the boundary: unless the answer is that 403, nothing of the
+ * page is sent. Form posts and data requests are refused here outright.
  */
 export const handleRoleGate: Handle = async ({ event, resolve }) => {
 	const id = event.route.id ?? '';
-	const user = event.locals.user;
-
 	if (id.startsWith('/api/admin')) {
 		const refused = refuseNonAdmin(event.locals);
 		if (refused) return refused;
-	} else if (id.startsWith('/(admin)')) {
-		if (!user) redirect(303, signInUrl(event.url));
-		if (user.role !== 'admin') error(403, 'This page is for admins.');
-	} else if (id.startsWith('/(teach)')) {
-		if (!user) redirect(303, signInUrl(event.url));
-		if (user.role !== 'teacher' && user.role !== 'admin') {
-			error(403, 'This page is for teachers.');
-		}
-	} else if (id.startsWith('/(learn)')) {
-		if (!user) redirect(303, signInUrl(event.url));
+		return resolve(event);
 	}
-	return resolve(event);
+	const gate = pageGate(id, event.locals.user);
+	if (gate === null) return resolve(event);
+	if (gate === 'sign-in') redirect(303, signInUrl(event.url));
+	const method = event.request.method;
+	if ((method === 'GET' || method === 'HEAD') && !event.isDataRequest && isPageRoute(id)) {
+		const response = await resolve(event);
+		if (response.status === 403) return response;
+		await response.body?.cancel();
+	}
+	error(403, gate);
 };
 
-export const handle = sequence(handleCrossSiteForms, handleSession, handleRoleGate);
+export const handle = sequence(
+	handleSecurityHeaders,
+	handleDatabaseFailure,
+	handleCrossSiteForms,
+	handleRequestOrigin,
+	handleTextFields,
+	handleActionNames,
+	handleSession,
+	handleRoleGate
+);
 
 /** Unexpected errors: logged in full here, a plain sentence for the person who hit them. */
 export const handleError: HandleServerError = ({ error: caught, event, status, message }) => {
@@ -96,5 +137,10 @@ export const handleError: HandleServerError = ({ error: caught, event, status, m
 	// action): Kit's short text ("Unsupported Media Type") says so, and there is no fault to log.
 	if (status < 500) return { message };
 	console.error(`[${event.request.method} ${event.url.pathname}]`, caught);
+	// A database that fails is no fault of the request: `handleDatabaseFailure` answers 503.
+	if (isDatabaseFailure(caught)) {
+		noteDatabaseFailure(event);
+		return { message: DATABASE_FAILURE_MESSAGE, status: 503 };
+	}
 	return { message: 'Something went wrong on our side. Please try again in a moment.' };
 };

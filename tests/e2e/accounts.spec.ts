@@ -58,7 +58,12 @@ test('a learner is refused the teacher and admin pages with 403', async ({ page,
 	for (const path of ['/teach', '/admin', '/admin/outbox']) {
 		const response = await page.goto(path);
 		expect(response?.status(), path).toBe(403);
-		await expect(page.getByRole('heading', { level: 1 })).toHaveText(/This page is for/);
+		// Refused inside the site shell: the header's menu, a heading and the reason.
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(
+			'This page is not open to your account'
+		);
+		await expect(page.getByRole('main')).toContainText(/This page is for/);
+		await expect(page.getByRole('link', { name: 'Settings' })).toBeVisible();
 	}
 	const api = await page.request.get('/api/admin/outbox');
 	expect(api.status()).toBe(403);
@@ -80,7 +85,8 @@ test('a teacher sees the Teaching link and an honest empty studio', async ({ pag
 	await expect(nav.getByRole('link', { name: 'Teaching' })).toHaveAttribute('aria-current', 'page');
 	await expect(nav.getByRole('link', { name: 'Admin' })).toHaveCount(0);
 	await expect(page.getByText('Your classes will be listed here')).toBeVisible();
-	await expect(page.getByText('Your decks will be listed here')).toBeVisible();
+	await expect(page.getByText('0 licks in your library, 0 decks')).toBeVisible();
+	await expect(nav.getByRole('link', { name: 'Library' })).toBeVisible();
 });
 
 test('an admin made with the CLI reaches the outbox and sees the sign-up mail', async ({

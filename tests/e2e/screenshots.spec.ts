@@ -67,6 +67,14 @@ for (const view of [
 			});
 		});
 
+		test('the refusal a learner gets from a teacher page', async ({ page, request }) => {
+			await signInAsNew(page, request, 'learner');
+			const response = await page.goto('/teach');
+			expect(response?.status()).toBe(403);
+			await settle(page);
+			await page.screenshot({ path: `${dir}/forbidden${view.suffix}.png` });
+		});
+
 		test('the admin outbox with a few sign-up mails', async ({ page, request }) => {
 			// Two more people sign up first, so the outbox lists more than the admin's own mail.
 			for (const account of [newAccount('teacher'), newAccount('learner', 'Ravi Okafor')]) {

@@ -41,8 +41,7 @@ function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
 		production: env.NODE_ENV === 'production',
 		authLimitScale: Number.isFinite(scale) && scale > 0 ? scale : 1,
 		secureCookies: env.NODE_ENV === 'production',
-		digestSchedule:
-			env.DIGEST_SCHEDULE === 'off' ? null : env.DIGEST_SCHEDULE || '*/5 * * * *'
+		digestSchedule: env.DIGEST_SCHEDULE === 'off' ? null : env.DIGEST_SCHEDULE || '*/5 * * * *'
 	};
 }
 

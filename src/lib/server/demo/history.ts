@@ -59,7 +59,7 @@ const HABITS: readonly Habit[] = [
 	},
 	{
 		email: 'trumpet@example.com',
-		practise: (random, yesterday) => random() < (yesterday ? 0.7 : 0.3),
+		practise: (random, yesterday) => random() < (yesterday ? 0.6 : 0.15),
 		hour: 18,
 		grades: () => [0.18, 0.27, 0.45, 0.1]
 	}

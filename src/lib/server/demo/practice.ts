@@ -5,7 +5,6 @@
  * seed so that simulated practice history can build on it.
  */
 import { Deck, DeckLick, Lick, User } from '../db/models/index';
-import { getDb } from '../db/index';
 import { insertCards } from '../study/cards';
 
 /** Demo learners and how many cards each got now. */
@@ -14,7 +13,6 @@ export async function seedDemoPractice(
 	learnerEmails: readonly string[],
 	now = new Date()
 ): Promise<{ email: string; created: number }[]> {
-	getDb();
 	const teacher = await User.findOne({ where: { email: teacherEmail } });
 	if (!teacher) return [];
 	const decks = await Deck.findAll({ where: { ownerId: teacher.id }, order: [['name', 'ASC']] });

@@ -59,13 +59,10 @@ export async function readJsonBody(
 		refuse(413, `The body is larger than ${Math.round(maxBytes / 1024)} KB; send less.`);
 	// A declared length over the limit is refused before anything is read.
 	if (Number(request.headers.get('content-length') ?? 0) > maxBytes) return tooLarge();
-	let text: string;
-	try {
-		text = await request.text();
-	} catch {
-		return refuse(400, 'The request body could not be read.');
-	}
-	if (Buffer.byteLength(text, 'utf8') > maxBytes) return tooLarge();
+	const read = await readTextUpTo(request, maxBytes);
+	if (read === 'too-large') return tooLarge();
+	if (read === 'unreadable') return refuse(400, 'The request body could not be read.');
+	const text = read.text;
 	try {
 		return { ok: true, value: JSON.parse(text) as unknown };
 	} catch {
@@ -88,6 +85,47 @@ export async function readJsonObject(
 		return refuse(400, 'The body must be a JSON object with named fields.');
 	}
 	return { ok: true, value: value as Record<string, unknown> };
+}
+
+/**
+ * A body's text, read chunk by chunk and abandoned as soon as it passes `maxBytes`: a chunked
+ * body declares no length, so only counting what arrives can tell that it is too large (and
+ * the server's own cap, which errors the stream, also means "too large", not "unreadable").
+ * @example await readTextUpTo(request, 16 * 1024) // { text: '{"a":1}' } or 'too-large'
+ */
+export async function readTextUpTo(
+	request: Request,
+	maxBytes: number
+): Promise<{ text: string } | 'too-large' | 'unreadable'> {
+	if (!request.body) return { text: '' };
+	if (request.bodyUsed) return 'unreadable';
+	const reader = request.body.getReader();
+	const chunks: Uint8Array[] = [];
+	let size = 0;
+	try {
+		for (;;) {
+			const { done, value } = await reader.read();
+			if (done) break;
+			size += value.byteLength;
+			if (size > maxBytes) {
+				void reader.cancel().catch(() => {});
+				return 'too-large';
+			}
+			chunks.push(value);
+		}
+	} catch (caught) {
+		return statusOf(caught) === 413 ? 'too-large' : 'unreadable';
+	}
+	const text = new TextDecoder('utf-8').decode(Buffer.concat(chunks));
+	return { text };
+}
+
+function statusOf(caught: unknown): number | undefined {
+	if (caught && typeof caught === 'object' && 'status' in caught) {
+		const status = (caught as { status: unknown }).status;
+		return typeof status === 'number' ? status : undefined;
+	}
+	return undefined;
 }
 
 function refuse(status: number, message: string): { ok: false; response: Response } {

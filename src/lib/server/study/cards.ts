@@ -94,7 +94,6 @@ export async function addCards(
 	input: AddCardsInput,
 	now: Date
 ): Promise<AddCardsAnswer> {
-	getDb();
 	let licks: Lick[];
 	const extra: string[] = [];
 	if ('deckId' in input) {
@@ -209,7 +208,6 @@ export function reviewRecordOf(r: Review): ReviewRecord {
  * @example await getCard(me, cardId, now) // { card: { … }, reviews: [ … ] }
  */
 export async function getCard(actor: Actor, cardId: string, now: Date): Promise<CardAnswer> {
-	getDb();
 	const card = isId(cardId) ? await Card.findByPk(cardId) : null;
 	if (!card) throw new StudyError(404, 'No such card.');
 	if (card.userId !== actor.id && !(await teachersOf(card.userId)).has(actor.id)) {

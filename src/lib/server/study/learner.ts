@@ -4,7 +4,6 @@
  */
 import type { UserSettings } from '../../practice/settings';
 import { dayBounds, practiceDay } from '../../practice/day';
-import { getDb } from '../db/index';
 import { readSettings } from './settings';
 
 /** Who is acting: at least an id; the settings when the session already holds them. */
@@ -30,7 +29,6 @@ export interface Learner {
  */
 export async function loadLearner(actor: Actor | string): Promise<Learner | null> {
 	const id = typeof actor === 'string' ? actor : actor.id;
-	getDb();
 	const settings =
 		typeof actor !== 'string' && actor.settings ? actor.settings : await readSettings(id);
 	if (!settings) return null;

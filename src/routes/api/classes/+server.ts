@@ -21,5 +21,5 @@ export const POST: RequestHandler = async ({ locals, request }) => {
 	if (!body.ok) return body.response;
 	const result = await createClass(locals.user, body.value);
 	if (!result.ok) return refusal(result);
-	return json({ class: result.class }, { status: 201 });
+	return json(result.class, { status: 201 });
 };

@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { signUp } from '$lib/server/auth/accounts';
+import { normalizeEmail, signUp } from '$lib/server/auth/accounts';
 import { apiError, readJsonObject, tooManyRequests } from '$lib/server/http/json';
 import { consumeSignUp } from '$lib/server/auth/limits';
 import type { RequestHandler } from './$types';
@@ -12,6 +12,11 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 	const body = await readJsonObject(request);
 	if (!body.ok) return body.response;
+	// Refused before the limiter: a missing or malformed address would otherwise count against
+	// one shared per-e-mail bucket (the empty one), which a stranger could fill for everyone.
+	if (!normalizeEmail(body.value.email)) {
+		return apiError(422, 'Enter an e-mail address such as name@example.com.', { field: 'email' });
+	}
 	const limit = consumeSignUp(getClientAddress(), body.value.email);
 	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds);
 

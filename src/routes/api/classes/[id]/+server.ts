@@ -12,7 +12,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ locals, params }) => {
 	if (!locals.user) return signInFirst(null)!;
 	const result = await getClass(locals.user, params.id);
-	return result.ok ? json({ class: result.class }) : refusal(result);
+	return result.ok ? json(result.class) : refusal(result);
 };
 
 export const PUT: RequestHandler = async ({ locals, params, request }) => {
@@ -20,11 +20,11 @@ export const PUT: RequestHandler = async ({ locals, params, request }) => {
 	const body = await readJsonObject(request);
 	if (!body.ok) return body.response;
 	const result = await updateClass(locals.user, params.id, body.value);
-	return result.ok ? json({ class: result.class }) : refusal(result);
+	return result.ok ? json(result.class) : refusal(result);
 };
 
 export const DELETE: RequestHandler = async ({ locals, params }) => {
 	if (!locals.user) return signInFirst(null)!;
 	const result = await archiveClass(locals.user, params.id);
-	return result.ok ? json({ class: result.class }) : refusal(result);
+	return result.ok ? json(result.class) : refusal(result);
 };

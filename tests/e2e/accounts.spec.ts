@@ -47,9 +47,7 @@ test('a learner signs up with the form, confirms the address from the mailed lin
 	await page.getByLabel('Password').fill(learner.password);
 	await page.getByRole('button', { name: 'Sign in' }).click();
 	await expect(page).toHaveURL(/\/home$/);
-	await expect(
-		page.getByText("Your teacher's decks appear here once you join a class.")
-	).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Add to your drill' })).toBeVisible();
 });
 
 test('a learner is refused the teacher and admin pages with 403', async ({ page, request }) => {

@@ -183,6 +183,9 @@ const requestRefusal = (e: unknown): RenderRefusal => {
 	throw e;
 };
 
+/** The longest a waiting render holds back for the global budget before it goes ahead. */
+const MAX_WAIT_MS = 2000;
+
 // --- the two doors ----------------------------------------------------------------------------
 
 /**
@@ -191,10 +194,20 @@ const requestRefusal = (e: unknown): RenderRefusal => {
  */
 export async function renderLickVariant(
 	source: LickSource,
-	options: VariantOptions = {}
+	options: VariantOptions = {},
+	whenBusy: 'refuse' | 'wait' = 'refuse'
 ): Promise<RenderOutcome<VariantAnswer>> {
-	const busy = budgetRefusal(Date.now());
-	if (busy) return busy;
+	// A signed-in page that renders many prompts in one request (the drill's queue) waits its turn
+	// instead of refusing itself halfway: the budget still spaces its work out, so other requests
+	// get the engine in between, and after a bounded wait it goes ahead.
+	if (whenBusy === 'wait') {
+		for (let waited = 0; waited < MAX_WAIT_MS && budgetRefusal(Date.now()); waited += 25) {
+			await new Promise((resolve) => setTimeout(resolve, 25));
+		}
+	} else {
+		const busy = budgetRefusal(Date.now());
+		if (busy) return busy;
+	}
 	const started = performance.now();
 	try {
 		const lick = preparedLick(source);

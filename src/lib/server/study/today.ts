@@ -291,7 +291,8 @@ async function promptsFor(
 		// Through the engine's bounded door, shared with every other route that renders.
 		const rendered = await renderLickVariant(
 			{ abc: lick.abc, versions: own },
-			{ to: key, quality: card.quality as QualityId, instrument: learner.instrument }
+			{ to: key, quality: card.quality as QualityId, instrument: learner.instrument },
+			'wait'
 		);
 		if (!rendered.ok) {
 			if (rendered.status === 503) {

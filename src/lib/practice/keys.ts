@@ -5,39 +5,14 @@
  * Round the cycle of fourths: the next key after the last one played. Fixed: always one key.
  * Always within the keys an assignment names. Pure: history and seed are passed in.
  */
+import { CYCLE_OF_FOURTHS, MAJOR_KEY_SPELLINGS } from '../music/key-data';
 import { pickWeighted, seededRandom } from './random';
 
 /** The twelve concert tonics as a jazz player spells them (common practice; REFERENCES.md §2). */
-export const TWELVE_KEYS = [
-	'C',
-	'Db',
-	'D',
-	'Eb',
-	'E',
-	'F',
-	'Gb',
-	'G',
-	'Ab',
-	'A',
-	'Bb',
-	'B'
-] as const;
+export const TWELVE_KEYS = MAJOR_KEY_SPELLINGS;
 
 /** The usual twelve-key practice order round the cycle of fourths (common practice). */
-export const FOURTHS_ORDER = [
-	'C',
-	'F',
-	'Bb',
-	'Eb',
-	'Ab',
-	'Db',
-	'Gb',
-	'B',
-	'E',
-	'A',
-	'D',
-	'G'
-] as const;
+export const FOURTHS_ORDER = CYCLE_OF_FOURTHS;
 
 export type KeyMode = 'weighted' | 'fourths' | 'fixed';
 

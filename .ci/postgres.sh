@@ -22,7 +22,7 @@ su postgres -c "psql -qc \"CREATE ROLE twelvefold_ci LOGIN PASSWORD 'twelvefold_
 su postgres -c "psql -qc \"CREATE DATABASE twelvefold_ci OWNER twelvefold_ci\"" >&2 || exit 0
 # Databases of their own for test files that would otherwise race the data-layer test, which
 # empties twelvefold_ci's public schema: TEST_POSTGRES_URL with the database name + "_<suffix>".
-for suffix in digest; do
+for suffix in digest limits; do
 	su postgres -c "psql -qc \"DROP DATABASE IF EXISTS twelvefold_ci_${suffix}\"" >&2 || exit 0
 	su postgres -c "psql -qc \"CREATE DATABASE twelvefold_ci_${suffix} OWNER twelvefold_ci\"" >&2 || exit 0
 done

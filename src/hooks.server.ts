@@ -9,6 +9,7 @@ import { sequence } from '@sveltejs/kit/hooks';
 import { building, dev } from '$app/environment';
 import { migrate } from '$lib/server/db/migrate';
 import { startMail, stopMail } from '$lib/server/mail';
+import { jobsSettled } from '$lib/server/jobs';
 import { closeDb } from '$lib/server/db';
 import { startDigestScheduler, stopDigestScheduler } from '$lib/server/digest/scheduler';
 import { refuseCrossSiteForm } from '$lib/server/http/cross-site';
@@ -42,7 +43,11 @@ export const init: ServerInit = async () => {
 	// adapter-node emits this after SIGTERM/SIGINT once requests have drained; the SMTP stand-in,
 	// the mail job and the database handle would otherwise keep the process alive.
 	process.once('sveltekit:shutdown', () => {
-		void stopDigestScheduler().then(stopMail).then(closeDb);
+		// Queued mails (reset links) get a few seconds to go out before mail stops.
+		void stopDigestScheduler()
+			.then(() => jobsSettled(10_000))
+			.then(stopMail)
+			.then(closeDb);
 	});
 };
 

@@ -1,6 +1,7 @@
 import { Session, User } from '../db/models/index';
 import { forgotPasswordSchema, normalizeEmail, resetPasswordSchema } from '../../forms/account';
 import { parseFirst } from '../../forms/parse';
+import { enqueueJob } from '../jobs';
 import { sendMail } from '../mail/index';
 import { passwordResetMail } from '../mail/templates/index';
 import {
@@ -16,9 +17,19 @@ import { invalid, type Invalid } from './user';
 
 /** Resetting a forgotten password through a mailed link. */
 
+/** Issue a reset token and mail its link, if the address (already normalised) has an account. */
+async function mailResetLink(email: string, now: Date): Promise<void> {
+	const user = await User.findOne({ where: { email } });
+	if (!user) return;
+	const token = await issueToken(user.id, 'reset', now);
+	const url = linkFor('/reset-password', token);
+	await sendMail({ to: user.email, ...passwordResetMail({ name: user.name, url }) });
+}
+
 /**
- * Mail a reset link if the address has an account. The answer is the same either way, so the
- * form cannot be used to find out who has an account.
+ * Mail a reset link if the address has an account, and wait until it is done. The answer is the
+ * same either way (a failure is logged, not reported), so the answer cannot tell who has an
+ * account; its time still can: pages use `queuePasswordReset`.
  * @example await requestPasswordReset('ada@example.com') // → { ok: true }
  */
 export async function requestPasswordReset(
@@ -27,14 +38,21 @@ export async function requestPasswordReset(
 ): Promise<{ ok: true } | Invalid> {
 	const read = parseFirst(forgotPasswordSchema, { email: emailInput });
 	if (!read.ok) return invalid(read.field, read.message);
-	const user = await User.findOne({ where: { email: normalizeEmail(read.value.email) ?? '' } });
-	if (user) {
-		const token = await issueToken(user.id, 'reset', now);
-		const url = linkFor('/reset-password', token);
-		await trySend(() =>
-			sendMail({ to: user.email, ...passwordResetMail({ name: user.name, url }) })
-		);
-	}
+	await trySend(() => mailResetLink(normalizeEmail(read.value.email) ?? '', now));
+	return { ok: true };
+}
+
+/**
+ * Check the address and queue the look-up, the token and the mail to run after answering: a
+ * known address and an unknown one then take the same time to answer (the job queue logs and
+ * retries a mail that fails).
+ * @example queuePasswordReset('ada@example.com') // → { ok: true }, the mail follows
+ */
+export function queuePasswordReset(emailInput: unknown): { ok: true } | Invalid {
+	const read = parseFirst(forgotPasswordSchema, { email: emailInput });
+	if (!read.ok) return invalid(read.field, read.message);
+	const email = normalizeEmail(read.value.email) ?? '';
+	enqueueJob({ name: 'password reset mail', run: () => mailResetLink(email, new Date()) });
 	return { ok: true };
 }
 

@@ -22,9 +22,10 @@ export function signInFirst(user: SessionUser | null): Response | null {
 	return user ? null : apiError(401, 'Sign in first.');
 }
 
-// Invitations send mail, and join codes are short enough to guess at: both are limited per user.
-const invitationLimiter = createRateLimiter({ max: 30, windowMs: 60 * 60 * 1000 });
-const joinLimiter = createRateLimiter({ max: 20, windowMs: 15 * 60 * 1000 });
+// Invitations send mail, and join codes are short enough to guess at: both are limited per user,
+// in the database so that the limits hold across processes.
+const invitationLimiter = createRateLimiter('class-invite', { max: 30, windowMs: 60 * 60 * 1000 });
+const joinLimiter = createRateLimiter('class-join', { max: 20, windowMs: 15 * 60 * 1000 });
 
 export const classLimits = {
 	/** 30 invitation mails an hour per teacher. */

@@ -2,7 +2,12 @@
  * The library endpoints' shared edge: who is asking, the list query, the per-person limit on
  * engine work. Kept out of the route files, which may export only their HTTP handlers.
  */
-import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from '../auth/rate-limit';
+import {
+	createRateLimiter,
+	memoryStore,
+	type RateLimiter,
+	type RateLimiterOptions
+} from '../auth/rate-limit';
 import type { SessionUser } from '../auth/session';
 import { apiError } from '../http/json';
 import type { Actor } from './access';
@@ -82,12 +87,19 @@ export function readLickQuery(url: URL): LickQuery {
 
 /** Engine work (checks, grids) per person: 120 a minute covers fast typing with a debounce. */
 export const CHECK_LIMIT: RateLimiterOptions = { max: 120, windowMs: 60_000 };
-let checkLimiter: RateLimiter = createRateLimiter(CHECK_LIMIT);
+/**
+ * In this process's memory, deliberately, like the public transposition limit: it shares out
+ * this process's engine time, and the editor checks as the teacher types, which should not
+ * queue a database write each time.
+ */
+const newCheckLimiter = (options: RateLimiterOptions) =>
+	createRateLimiter('library-check', options, memoryStore());
+let checkLimiter: RateLimiter = newCheckLimiter(CHECK_LIMIT);
 export function libraryCheckLimiter(): RateLimiter {
 	return checkLimiter;
 }
 export function configureLibraryCheckLimit(options: RateLimiterOptions = CHECK_LIMIT): void {
-	checkLimiter = createRateLimiter(options);
+	checkLimiter = newCheckLimiter(options);
 }
 
 /**

@@ -32,5 +32,10 @@ export function libraryErrorResponse(e: unknown): Response {
 /** The answer for a refusal; a busy engine (503) says when to come back. */
 export function answerOf(e: LibraryError): Response {
 	const wait = e.details.retryAfterSeconds;
-	return apiError(e.status, e.message, e.details, wait ? { 'Retry-After': String(wait) } : undefined);
+	return apiError(
+		e.status,
+		e.message,
+		e.details,
+		wait ? { 'Retry-After': String(wait) } : undefined
+	);
 }

@@ -3,7 +3,12 @@
  * input into engine options. Kept out of the route file because a `+server.ts` may export only
  * its HTTP handlers, and tests need to reset the limiter.
  */
-import { createRateLimiter, type RateLimiter, type RateLimiterOptions } from '../auth/rate-limit';
+import {
+	createRateLimiter,
+	memoryStore,
+	type RateLimiter,
+	type RateLimiterOptions
+} from '../auth/rate-limit';
 import {
 	INSTRUMENT_IDS,
 	isInstrumentId,
@@ -23,7 +28,15 @@ export const MAX_TRANSPOSE_BODY_BYTES = 20 * 1024;
 /** 60 requests a minute per client address: plenty for a person trying licks, not for a scraper. */
 export const TRANSPOSE_LIMIT: RateLimiterOptions = { max: 60, windowMs: 60_000 };
 
-let limiter: RateLimiter = createRateLimiter(TRANSPOSE_LIMIT);
+/**
+ * Counted in this process's memory, deliberately: this limit shares out this process's engine
+ * time (beside the engine's own per-process budget), and a database write for every
+ * transposition would put the public try-it box in the single SQLite writer's queue, ahead of
+ * the reviews. With several processes a client gets this allowance from each.
+ */
+const newLimiter = (options: RateLimiterOptions) =>
+	createRateLimiter('transpose-address', options, memoryStore());
+let limiter: RateLimiter = newLimiter(TRANSPOSE_LIMIT);
 
 /** The limiter in use; `configureTransposeLimit` replaces it (tests use small windows). */
 export function transposeLimiter(): RateLimiter {
@@ -31,7 +44,7 @@ export function transposeLimiter(): RateLimiter {
 }
 
 export function configureTransposeLimit(options: RateLimiterOptions = TRANSPOSE_LIMIT): void {
-	limiter = createRateLimiter(options);
+	limiter = newLimiter(options);
 }
 
 export type TransposeInput =

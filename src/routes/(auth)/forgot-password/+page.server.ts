@@ -1,6 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { forgotPasswordSchema } from '$lib/forms/account';
-import { requestPasswordReset } from '$lib/server/auth/reset';
+import { queuePasswordReset } from '$lib/server/auth/reset';
 import { consumeReset } from '$lib/server/auth/limits';
 import { emptyForm, readForm, unreadable, refuse, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
@@ -11,18 +11,20 @@ export const load: PageServerLoad = async ({ url }) => ({
 });
 
 export const actions: Actions = {
-	default: async ({ request, getClientAddress }) => {
+	default: async ({ request, getClientAddress, setHeaders }) => {
 		const form = await readForm(request, forgotPasswordSchema);
 		if (!form) return unreadable(forgotPasswordSchema);
 
-		const limit = consumeReset(getClientAddress(), form.data.email);
+		const limit = await consumeReset(getClientAddress(), form.data.email);
 		if (!limit.allowed) {
+			setHeaders({ 'Retry-After': String(limit.retryAfterSeconds) });
 			const minutes = Math.ceil(limit.retryAfterSeconds / 60);
 			return say(form, `Too many requests. Try again in ${minutes} minutes.`, 429);
 		}
 		if (!form.valid) return refuse(form);
-		await requestPasswordReset(form.data.email);
-		// The same answer whether or not the address has an account.
+		// The same answer, in the same time, whether or not the address has an account: the
+		// look-up, the token and the mail happen after answering.
+		queuePasswordReset(form.data.email);
 		redirect(303, '/forgot-password?sent');
 	}
 };

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { signInSchema } from '$lib/forms/account';
 import { signIn } from '$lib/server/auth/password';
-import { beginSignIn, cancelSignIn, recordSignInSuccess } from '$lib/server/auth/limits';
+import { limitSignIn } from '$lib/server/auth/limits';
 import { homeFor, safeNext } from '$lib/server/auth/redirects';
 import { startSession } from '$lib/server/auth/session';
 import { filledForm, readForm, unreadable, say } from '$lib/server/forms';
@@ -17,24 +17,20 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 };
 
 export const actions: Actions = {
-	default: async ({ request, cookies, getClientAddress, url }) => {
+	default: async ({ request, cookies, getClientAddress, setHeaders, url }) => {
 		const form = await readForm(request, signInSchema);
 		if (!form) return unreadable(signInSchema);
 
-		const attempt = beginSignIn(getClientAddress(), form.data.email);
-		if (!attempt.allowed) {
-			const minutes = Math.ceil(attempt.retryAfterSeconds / 60);
+		const tried = await limitSignIn(getClientAddress(), form.data.email, () => signIn(form.data));
+		if (tried.limited) {
+			// The same header as the API's 429, for clients and proxies that read it.
+			setHeaders({ 'Retry-After': String(tried.retryAfterSeconds) });
+			const minutes = Math.ceil(tried.retryAfterSeconds / 60);
 			const text = `Too many tries. Take a breather and try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`;
 			return say(form, text, 429, 'password');
 		}
-
-		const result = await signIn(form.data);
-		if (!result.ok) {
-			// A missing field is not a guess at a password: it does not count towards the limit.
-			if (result.reason === 'invalid') cancelSignIn(attempt);
-			return say(form, result.message, 400, 'password');
-		}
-		recordSignInSuccess(attempt);
+		const result = tried.result;
+		if (!result.ok) return say(form, result.message, 400, 'password');
 		await startSession(cookies, result.user.id);
 		redirect(
 			303,

@@ -1,7 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { signUpSchema } from '$lib/forms/account';
 import { signUp } from '$lib/server/auth/accounts';
-import { consumeSignUp } from '$lib/server/auth/limits';
+import { consumeReset, consumeSignUp } from '$lib/server/auth/limits';
+import { queuePasswordReset } from '$lib/server/auth/reset';
 import { homeFor, safeNext } from '$lib/server/auth/redirects';
 import { acceptInvitation, previewInvitation } from '$lib/server/classes/invitations';
 import { startSession } from '$lib/server/auth/session';
@@ -16,17 +17,19 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const preview = invitation ? await previewInvitation(invitation) : null;
 	return {
 		form: await emptyForm(signUpSchema),
+		sent: url.searchParams.has('sent'),
 		invitedTo: preview?.status === 'open' ? preview.className : null
 	};
 };
 
 export const actions: Actions = {
-	default: async ({ request, cookies, getClientAddress, url }) => {
+	default: async ({ request, cookies, getClientAddress, setHeaders, url }) => {
 		const form = await readForm(request, signUpSchema);
 		if (!form) return unreadable(signUpSchema);
 
-		const limit = consumeSignUp(getClientAddress(), form.data.email);
+		const limit = await consumeSignUp(getClientAddress(), form.data.email);
 		if (!limit.allowed) {
+			setHeaders({ 'Retry-After': String(limit.retryAfterSeconds) });
 			const minutes = Math.ceil(limit.retryAfterSeconds / 60);
 			return say(
 				form,
@@ -38,10 +41,15 @@ export const actions: Actions = {
 		if (!form.valid) return refuse(form, 'password');
 
 		const result = await signUp(form.data);
-		if (!result.ok) {
-			const status = result.reason === 'email-taken' ? 409 : 422;
-			return refuseField(form, result.field, result.message, status, 'password');
+		if (!result.ok && result.reason === 'email-taken') {
+			// The page says (and does) what the reset page does, so it does not tell a stranger
+			// that this address has an account: its owner gets a reset link, within the reset
+			// limits. (The API still answers 409: a client there needs the reason.)
+			const reset = await consumeReset(getClientAddress(), form.data.email);
+			if (reset.allowed) queuePasswordReset(form.data.email);
+			redirect(303, '/sign-up?sent');
 		}
+		if (!result.ok) return refuseField(form, result.field, result.message, 422, 'password');
 		// Signed in straight away; the confirmation link can be followed whenever the mail arrives.
 		await startSession(cookies, result.user.id);
 		const invitation = url.searchParams.get('invitation');

@@ -25,10 +25,11 @@ export const load: PageServerLoad = async ({ url, locals }) => {
 
 export const actions: Actions = {
 	/** Send the link again (signed in, not yet confirmed). */
-	resend: async ({ locals, url }) => {
+	resend: async ({ locals, url, setHeaders }) => {
 		if (!locals.user) redirect(303, signInUrl(url));
-		const limit = consumeResend(locals.user.id);
+		const limit = await consumeResend(locals.user.id);
 		if (!limit.allowed) {
+			setHeaders({ 'Retry-After': String(limit.retryAfterSeconds) });
 			return fail(429, {
 				values: {},
 				message: `Three links an hour is the most we send. Try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`

@@ -17,11 +17,12 @@ export const load: PageServerLoad = async ({ url }) => {
 };
 
 export const actions: Actions = {
-	join: async ({ request }) => {
+	join: async ({ request, setHeaders }) => {
 		const user = requireUser();
 		const form = await readFields(request);
-		const limit = classLimits.join(user.id);
+		const limit = await classLimits.join(user.id);
 		if (!limit.allowed) {
+			setHeaders({ 'Retry-After': String(limit.retryAfterSeconds) });
 			return fail(429, {
 				code: form?.code ?? '',
 				message: `Too many tries; wait ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`

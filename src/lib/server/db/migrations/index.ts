@@ -4,6 +4,7 @@ import { coreLoop } from './0002-core-loop';
 import { settingsColumns } from './0003-settings-columns';
 import { checkConstraints } from './0003-check-constraints';
 import { mailChoices } from './0040-mail-choices';
+import { rateLimitCounters } from './0041-rate-limit-counters';
 
 export type { Migration } from './types';
 
@@ -16,5 +17,6 @@ export const migrations: Migration[] = [
 	coreLoop,
 	settingsColumns,
 	checkConstraints,
-	mailChoices
+	mailChoices,
+	rateLimitCounters
 ];

@@ -17,7 +17,7 @@ export const POST: RequestHandler = async ({ request, getClientAddress }) => {
 	if (!normalizeEmail(body.value.email)) {
 		return apiError(422, 'Enter an e-mail address such as name@example.com.', { field: 'email' });
 	}
-	const limit = consumeSignUp(getClientAddress(), body.value.email);
+	const limit = await consumeSignUp(getClientAddress(), body.value.email);
 	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds);
 
 	const result = await signUp(body.value);

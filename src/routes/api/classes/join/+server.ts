@@ -10,7 +10,7 @@ import type { RequestHandler } from './$types';
  */
 export const POST: RequestHandler = async ({ locals, request }) => {
 	if (!locals.user) return signInFirst(null)!;
-	const limit = classLimits.join(locals.user.id);
+	const limit = await classLimits.join(locals.user.id);
 	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds, 'join attempts');
 	const body = await readJsonObject(request);
 	if (!body.ok) return body.response;

@@ -11,7 +11,7 @@ import type { RequestHandler } from './$types';
  */
 export const POST: RequestHandler = ({ locals, request }) =>
 	withActor(locals, async (actor) => {
-		const limit = libraryCheckLimiter().consume(actor.id);
+		const limit = await libraryCheckLimiter().consume(actor.id);
 		if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds, 'checks');
 		const body = await readJsonBody(request, MAX_LICK_BODY_BYTES);
 		if (!body.ok) return body.response;

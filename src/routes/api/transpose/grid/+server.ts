@@ -18,7 +18,7 @@ import type { RequestHandler } from './$types';
  * many requests from this address, 503 the engine's global budget is spent for this second.
  */
 export const POST: RequestHandler = async ({ request, getClientAddress }) => {
-	const limit = transposeLimiter().consume(getClientAddress());
+	const limit = await transposeLimiter().consume(getClientAddress());
 	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds, 'requests');
 	const body = await readJsonBody(request, MAX_TRANSPOSE_BODY_BYTES);
 	if (!body.ok) return body.response;

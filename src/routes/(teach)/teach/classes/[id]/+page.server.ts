@@ -90,11 +90,12 @@ export const actions: Actions = {
 		const result = await updateClass(user, params.id, change);
 		return result.ok ? { done: 'Saved.' } : refused(result);
 	},
-	invite: async ({ request, params }) => {
+	invite: async ({ request, params, setHeaders }) => {
 		const user = requireRole('teacher', 'admin');
 		const form = await readFields(request);
-		const limit = classLimits.invite(user.id);
+		const limit = await classLimits.invite(user.id);
 		if (!limit.allowed) {
+			setHeaders({ 'Retry-After': String(limit.retryAfterSeconds) });
 			return fail(429, {
 				form: 'invite',
 				email: form?.email ?? '',

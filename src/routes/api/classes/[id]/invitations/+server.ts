@@ -19,7 +19,7 @@ export const POST: RequestHandler = async ({ locals, params, request }) => {
 	if (!locals.user) return signInFirst(null)!;
 	const body = await readJsonObject(request);
 	if (!body.ok) return body.response;
-	const limit = classLimits.invite(locals.user.id);
+	const limit = await classLimits.invite(locals.user.id);
 	if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds, 'invitations');
 	const result = await inviteByEmail(locals.user, params.id, body.value);
 	if (!result.ok) return refusal(result);

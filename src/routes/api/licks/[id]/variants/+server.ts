@@ -12,7 +12,7 @@ import type { RequestHandler } from './$types';
  */
 export const GET: RequestHandler = ({ locals, params, url }) =>
 	withActor(locals, async (actor) => {
-		const limit = libraryCheckLimiter().consume(actor.id);
+		const limit = await libraryCheckLimiter().consume(actor.id);
 		if (!limit.allowed) return tooManyRequests(limit.retryAfterSeconds, 'requests');
 		const p = url.searchParams;
 		const query = {

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, test } from 'vitest';
 import { isRedirect } from '@sveltejs/kit';
 import { configureAuthLimits } from '../../../src/lib/server/auth/limits';
+import { jobsSettled } from '../../../src/lib/server/jobs';
 import { safeNext, signInUrl } from '../../../src/lib/server/auth/redirects';
 import { SESSION_COOKIE_NAME } from '../../../src/lib/server/auth/session';
 import { User } from '../../../src/lib/server/db/models/index';
@@ -26,19 +27,24 @@ async function post(
 	action: Action,
 	fields: Record<string, string>,
 	path = '/',
-	cookies = new FakeCookies()
+	cookies = new FakeCookies(),
+	address?: string
 ) {
 	const event = fakeEvent({
 		method: 'POST',
 		path,
 		body: new URLSearchParams(fields).toString(),
 		contentType: 'application/x-www-form-urlencoded',
-		cookies
+		cookies,
+		address
 	});
+	const headers = event.sentHeaders;
 	try {
-		return { result: await action(event as never), cookies };
+		return { result: await action(event as never), cookies, headers };
 	} catch (thrown) {
-		if (isRedirect(thrown)) return { redirect: thrown.location, status: thrown.status, cookies };
+		if (isRedirect(thrown)) {
+			return { redirect: thrown.location, status: thrown.status, cookies, headers };
+		}
 		throw thrown;
 	}
 }
@@ -128,14 +134,16 @@ describe('the account forms', () => {
 		expect(unsafe).toMatchObject({ status: 303, redirect: '/home' });
 	});
 
-	test('a wrong password answers 400 keeping the address, and the sixth try 429', async () => {
+	test('a wrong password answers 400 keeping the address, and the sixth try 429 with Retry-After', async () => {
 		const statuses = [];
+		const retryAfter = [];
 		for (let i = 0; i < 6; i++) {
 			const done = await post(signInActions.default, {
 				email: 'form3@example.test',
 				password: 'not-the-one-1'
 			});
 			statuses.push((done.result as { status: number }).status);
+			retryAfter.push(done.headers['Retry-After']);
 			if (i === 0) {
 				expect(done.result).toMatchObject({
 					data: {
@@ -148,6 +156,84 @@ describe('the account forms', () => {
 			}
 		}
 		expect(statuses).toEqual([400, 400, 400, 400, 400, 429]);
+		// Like the API's 429: whole seconds, at most the 15-minute window.
+		expect(retryAfter.slice(0, 5)).toEqual([undefined, undefined, undefined, undefined, undefined]);
+		expect(Number(retryAfter[5])).toBeGreaterThan(0);
+		expect(Number(retryAfter[5])).toBeLessThanOrEqual(15 * 60 + 1);
+	});
+
+	test('sign-up and reset answer 429 with Retry-After too', async () => {
+		await configureAuthLimits({
+			signUpAddress: { max: 1, windowMs: 60_000 },
+			resetAddress: { max: 1, windowMs: 60_000 }
+		});
+		const signUp = () =>
+			post(
+				signUpActions.default,
+				{ name: 'Busy', email: 'busy@example.test', password: PASSWORD, role: 'learner' },
+				'/',
+				new FakeCookies(),
+				'192.0.2.77'
+			);
+		await signUp();
+		const refused = await signUp();
+		expect(refused.result).toMatchObject({ status: 429 });
+		expect(Number(refused.headers['Retry-After'])).toBeGreaterThan(0);
+		const reset = () =>
+			post(
+				forgotActions.default,
+				{ email: 'busy@example.test' },
+				'/',
+				new FakeCookies(),
+				'192.0.2.77'
+			);
+		expect(await reset()).toMatchObject({ status: 303 });
+		const resetRefused = await reset();
+		expect(resetRefused.result).toMatchObject({ status: 429 });
+		expect(Number(resetRefused.headers['Retry-After'])).toBeGreaterThan(0);
+	});
+
+	test('sign-up forms without an e-mail share no bucket: each is refused for the address, never limited', async () => {
+		await configureAuthLimits({
+			signUpEmail: { max: 1, windowMs: 60_000 },
+			signUpAddress: { max: 100, windowMs: 60_000 }
+		});
+		for (let i = 0; i < 4; i++) {
+			for (const email of ['', '   ', 'not-an-address']) {
+				const done = await post(
+					signUpActions.default,
+					{ name: 'Nobody', email, password: PASSWORD, role: 'learner' },
+					'/',
+					new FakeCookies(),
+					`198.51.100.${i}`
+				);
+				expect((done.result as { status: number }).status).toBe(422);
+			}
+		}
+	});
+
+	test('sign-up with an address that has an account says what the reset page says, and mails a reset link', async () => {
+		await post(signUpActions.default, {
+			name: 'First',
+			email: 'taken@example.test',
+			password: PASSWORD,
+			role: 'learner'
+		});
+		const again = await post(
+			signUpActions.default,
+			{ name: 'Second', email: 'Taken@Example.test', password: 'other-pass-99', role: 'learner' },
+			'/',
+			new FakeCookies(),
+			'192.0.2.88'
+		);
+		expect(again).toMatchObject({ status: 303, redirect: '/sign-up?sent' });
+		// Not signed in as anyone.
+		expect(again.cookies.get(SESSION_COOKIE_NAME)).toBeUndefined();
+		await jobsSettled();
+		expect(await tokenFromOutbox('taken@example.test', '/reset-password')).toMatch(/^[\w-]{20,}$/);
+		const { load } = await import('../../../src/routes/(auth)/sign-up/+page.server');
+		const page = (await load(fakeEvent({ path: '/sign-up?sent' }) as never)) as { sent: boolean };
+		expect(page.sent).toBe(true);
 	});
 
 	test('a body that is not a form answers 400 and changes nothing', async () => {
@@ -170,6 +256,8 @@ describe('the account forms', () => {
 		const unknown = await post(forgotActions.default, { email: 'ghost@example.test' });
 		expect(known).toMatchObject({ status: 303, redirect: '/forgot-password?sent' });
 		expect(unknown).toMatchObject({ status: 303, redirect: '/forgot-password?sent' });
+		// The mail goes out after the answer.
+		await jobsSettled();
 
 		const token = await tokenFromOutbox('form3@example.test', '/reset-password');
 		const mismatch = await post(resetActions.default, {

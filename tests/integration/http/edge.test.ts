@@ -281,7 +281,7 @@ describe('failures', () => {
 
 describe('account routes at the edge', () => {
 	test('sign-ups without an e-mail are refused before the limiter, so they fill no shared bucket', async () => {
-		configureAuthLimits({
+		await configureAuthLimits({
 			signUpEmail: { max: 1, windowMs: 60_000 },
 			signUpAddress: { max: 100, windowMs: 60_000 }
 		});

@@ -56,7 +56,10 @@ export function fakeEvent(input: FakeEventInput = {}) {
 		headers,
 		body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body)
 	});
+	/** What the handler set with `setHeaders`, as Kit would add it to the answer. */
+	const sentHeaders: Record<string, string> = {};
 	return {
+		sentHeaders,
 		request,
 		url,
 		cookies,
@@ -68,7 +71,7 @@ export function fakeEvent(input: FakeEventInput = {}) {
 		isRemoteRequest: false,
 		platform: undefined,
 		getClientAddress: () => address,
-		setHeaders: () => {},
+		setHeaders: (headers: Record<string, string>) => Object.assign(sentHeaders, headers),
 		fetch: globalThis.fetch,
 		tracing: { enabled: false, root: undefined, current: undefined }
 	};

@@ -8,6 +8,8 @@
  * (JSON in, validation, rate limit, bounded render, JSON out), against a bare `Response` of the
  * same size as a floor.
  * Each figure is the median of several timed batches after a warm-up.
+ * Then the reset form's answer time for an address with and without an account, and the cost of
+ * a rate-limit hit counted in the database (bench/auth.ts).
  * Then the scheduled mails (bench/digest.ts): reminders for 10 000 learners (BENCH_DIGEST_LEARNERS)
  * composed and handed to the local SMTP stand-in, against the bare handover of one ready-made mail.
  */
@@ -195,6 +197,10 @@ await import('./drill');
 // Class progress and the heat map over a large review log (bench/classes.ts).
 const { benchClasses } = await import('./classes');
 console.log(['', ...(await benchClasses())].join('\n'));
+// The account edge: the reset form's answer time with and without an account, and a rate-limit
+// hit in the database against one in memory (bench/auth.ts).
+const { benchAuth } = await import('./auth');
+console.log((await benchAuth()).join('\n'));
 // The scheduled mails, in a process of their own so that the peak memory is theirs alone.
 const digestRun = spawnSync(process.execPath, ['--import', 'tsx', 'bench/digest.ts'], {
 	encoding: 'utf8',

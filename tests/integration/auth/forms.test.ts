@@ -4,7 +4,7 @@ import { configureAuthLimits } from '../../../src/lib/server/auth/limits';
 import { jobsSettled } from '../../../src/lib/server/jobs';
 import { safeNext, signInUrl } from '../../../src/lib/server/auth/redirects';
 import { SESSION_COOKIE_NAME } from '../../../src/lib/server/auth/session';
-import { User } from '../../../src/lib/server/db/models/index';
+import { EmailToken, User } from '../../../src/lib/server/db/models/index';
 import { actions as signInActions } from '../../../src/routes/(auth)/sign-in/+page.server';
 import { actions as signUpActions } from '../../../src/routes/(auth)/sign-up/+page.server';
 import { actions as forgotActions } from '../../../src/routes/(auth)/forgot-password/+page.server';
@@ -252,12 +252,18 @@ describe('the account forms', () => {
 	});
 
 	test('forgot-password answers alike for known and unknown addresses; the reset form sets the password', async () => {
+		const owner = await User.findOne({ where: { email: 'form3@example.test' } });
+		const resetTokens = () => EmailToken.count({ where: { userId: owner!.id, purpose: 'reset' } });
+		const before = await resetTokens();
 		const known = await post(forgotActions.default, { email: 'form3@example.test' });
+		// Answered before the account was even looked up: no token yet, so no time spent on one.
+		expect(await resetTokens()).toBe(before);
 		const unknown = await post(forgotActions.default, { email: 'ghost@example.test' });
 		expect(known).toMatchObject({ status: 303, redirect: '/forgot-password?sent' });
 		expect(unknown).toMatchObject({ status: 303, redirect: '/forgot-password?sent' });
-		// The mail goes out after the answer.
+		// The token and the mail follow the answer.
 		await jobsSettled();
+		expect(await resetTokens()).toBe(before + 1);
 
 		const token = await tokenFromOutbox('form3@example.test', '/reset-password');
 		const mismatch = await post(resetActions.default, {

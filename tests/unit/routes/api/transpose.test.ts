@@ -114,7 +114,10 @@ describe('POST /api/transpose', () => {
 		expect((await call({ abc: LICK })).status).toBe(200);
 		const third = await call({ abc: LICK });
 		expect(third.status).toBe(429);
-		expect(third.headers.get('retry-after')).toBe('60');
+		// Whole seconds until the one-minute window lets a hit through again.
+		const wait = Number(third.headers.get('retry-after'));
+		expect(wait).toBeGreaterThanOrEqual(1);
+		expect(wait).toBeLessThanOrEqual(60);
 		expect((await call({ abc: LICK }, { address: '198.51.100.1' })).status).toBe(200);
 	});
 

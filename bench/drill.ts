@@ -247,7 +247,11 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 		if (existsSync(dbFile + ext)) copyFileSync(dbFile + ext, bareFile + ext);
 
 	const appPort = await freePort();
-	const app = spawn(process.execPath, ['build'], {
+	// BENCH_CPU_PROF=<dir> writes a V8 CPU profile of the server (on a clean exit) for reading.
+	const profile = process.env.BENCH_CPU_PROF
+		? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(process.env.BENCH_CPU_PROF)}`]
+		: [];
+	const app = spawn(process.execPath, [...profile, 'build'], {
 		cwd: ROOT,
 		// Its log is kept and shown only when no write succeeded (stopping it mid-request logs
 		// the requests cut off).

@@ -19,6 +19,33 @@ export async function signInAsDemo(page: Page, email: string): Promise<void> {
 	expect(res.status(), await res.text()).toBe(200);
 }
 
+/** Pick the signed-in learner's instrument on the settings page (its id, e.g. `trumpet`). */
+export async function chooseInstrument(page: Page, instrument: string): Promise<void> {
+	await page.goto('/settings');
+	const practice = page.getByRole('region', { name: 'Practice' });
+	await practice.getByLabel('Instrument').selectOption(instrument);
+	await practice.getByRole('button', { name: 'Save practice settings' }).click();
+	await expect(page).toHaveURL(/\/settings\?changed=practice$/);
+}
+
+/**
+ * Add `count` public licks (the demo's, by title) to the signed-in learner's drill: a queue of
+ * that many new licks, the same whatever the hour. Answers the cards' ids.
+ */
+export async function addPublicLicks(page: Page, count: number): Promise<string[]> {
+	const list = await page.request.get(`/api/licks?scope=public&sort=title&limit=${count}`);
+	expect(list.status(), await list.text()).toBe(200);
+	const { items } = (await list.json()) as { items: { id: string }[] };
+	expect(items.length, 'the demo should hold enough public licks').toBe(count);
+	const cardIds: string[] = [];
+	for (const lick of items) {
+		const res = await page.request.post('/api/cards', { data: { lickId: lick.id } });
+		expect(res.status(), await res.text()).toBe(201);
+		cardIds.push(...((await res.json()) as { cardIds: string[] }).cardIds);
+	}
+	return cardIds;
+}
+
 /** The card as the server has it, with its review history (newest first). */
 export async function cardOnServer(page: Page, cardId: string): Promise<CardAnswer> {
 	const res = await page.request.get(`/api/cards/${cardId}`);

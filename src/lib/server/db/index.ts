@@ -36,7 +36,66 @@ class TunedDatabase extends sqlite3.Database {
 			);
 		});
 	}
+
+	all(sql: string, ...rest: unknown[]): this {
+		const table = typeof sql === 'string' ? TABLE_INFO.exec(sql)?.[1] : undefined;
+		const callback = rest.at(-1);
+		if (table !== undefined && rest.length === 1 && typeof callback === 'function') {
+			const done = callback as DriverCallback;
+			const known = tableInfo.get(table);
+			if (known) {
+				process.nextTick(() => done.call(this, null, known));
+				return this;
+			}
+			return super.all(sql, (err: Error | null, rows: unknown[]) => {
+				if (!err) tableInfo.set(table, rows);
+				done.call(this, err, rows);
+			});
+		}
+		return super.all(sql, ...forgetOnDdl(sql, rest));
+	}
+
+	run(sql: string, ...rest: unknown[]): this {
+		return super.run(sql, ...forgetOnDdl(sql, rest));
+	}
+
+	exec(sql: string, callback?: (err: Error | null) => void): this {
+		const [after] = forgetOnDdl(sql, [callback ?? (() => {})]);
+		return super.exec(sql, after as (err: Error | null) => void);
+	}
 }
+
+/**
+ * For a statement that changes the schema: the kept column types are dropped before it runs and
+ * again when it has run (a look-up in between could have read the old schema).
+ */
+function forgetOnDdl(sql: unknown, rest: unknown[]): unknown[] {
+	if (typeof sql !== 'string' || !DDL.test(sql)) return rest;
+	tableInfo.clear();
+	const callback = rest.at(-1);
+	if (typeof callback !== 'function') return rest;
+	return [
+		...rest.slice(0, -1),
+		function (this: unknown, ...args: unknown[]) {
+			tableInfo.clear();
+			return (callback as (...a: unknown[]) => unknown).apply(this, args);
+		}
+	];
+}
+
+/**
+ * `PRAGMA table_info` answers, by table, shared by every connection of this process. Sequelize's
+ * SQLite dialect asks for the column types of every table a model query reads before running
+ * it (to turn DATETIME text into dates), one extra round trip per table per query, and opens a
+ * new connection per transaction; the schema changes only through DDL, so the answers are kept
+ * until a statement of this process creates, alters or drops something. (Another process changing
+ * the schema of a running server's file is not supported: the server migrates at its own start.)
+ */
+const tableInfo = new Map<string, unknown[]>();
+const TABLE_INFO = /^PRAGMA table_info\(`([^`]+)`\)$/;
+const DDL = /\b(CREATE|ALTER|DROP)\s+(TABLE|INDEX|UNIQUE|VIEW|TRIGGER)\b/i;
+
+type DriverCallback = (this: unknown, err: Error | null, rows?: unknown[]) => void;
 
 /** The driver module Sequelize loads: sqlite3 with `Database` replaced by the tuned one. */
 const tunedSqlite3 = { ...sqlite3, Database: TunedDatabase };

@@ -1,24 +1,21 @@
 import { expect, test, type Page } from '@playwright/test';
 import { signInAsNew } from './support/accounts';
 import {
-	addPublicLicks,
+	addOwnDeck,
 	cardOnServer,
 	chooseInstrument,
 	nextRecall,
 	promptNow,
-	revealAndGrade,
-	seedDemo
+	revealAndGrade
 } from './support/drill';
 
 /**
- * The daily drill end to end, at phone size and on a desktop: a fresh learner adds five public
- * licks (so today's queue is theirs alone: five new licks, whatever the hour), opens the drill,
+ * The daily drill end to end, at phone size and on a desktop: a fresh learner writes five licks
+ * into a deck and adds it (so today's queue is five new licks, whatever the hour), opens the drill,
  * learns, plays the changes, reveals, grades with every grade (keys and buttons), undoes, reloads
  * mid-sitting, grades with the network gone, sees the grades saved once it is back, finishes and
  * sees the summary. Audio cannot be heard here, so the players' state is asserted instead.
  */
-
-test.beforeAll(() => seedDemo());
 
 /** The grade buttons of the prompt on screen. */
 const gradeButton = (page: Page, name: string) =>
@@ -39,7 +36,7 @@ for (const view of [
 			test.setTimeout(180_000);
 			await signInAsNew(page, request, 'learner');
 			await chooseInstrument(page, view.instrument);
-			const added = await addPublicLicks(page, 5);
+			const added = await addOwnDeck(page, 5);
 			expect(added).toHaveLength(5);
 
 			await page.goto('/drill');

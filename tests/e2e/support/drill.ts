@@ -1,6 +1,7 @@
 import { execFileSync } from 'node:child_process';
 import { expect, type Page } from '@playwright/test';
 import type { CardAnswer } from '../../../src/lib/practice/api';
+import { DEMO_LICKS } from '../../../src/lib/demo/licks';
 import { E2E_DATA_DIR } from './env';
 
 /** The demo school (accounts, licks, decks, learners' cards) seeded into the server's data folder. */
@@ -29,21 +30,28 @@ export async function chooseInstrument(page: Page, instrument: string): Promise<
 }
 
 /**
- * Add `count` public licks (the demo's, by title) to the signed-in learner's drill: a queue of
- * that many new licks, the same whatever the hour. Answers the cards' ids.
+ * Give the signed-in learner `count` licks of their own (the demo's lines, written by us), in a
+ * deck added to their drill: a queue of that many new licks, the same whatever the hour.
+ * Answers the cards' ids.
  */
-export async function addPublicLicks(page: Page, count: number): Promise<string[]> {
-	const list = await page.request.get(`/api/licks?scope=public&sort=title&limit=${count}`);
-	expect(list.status(), await list.text()).toBe(200);
-	const { items } = (await list.json()) as { items: { id: string }[] };
-	expect(items.length, 'the demo should hold enough public licks').toBe(count);
-	const cardIds: string[] = [];
-	for (const lick of items) {
-		const res = await page.request.post('/api/cards', { data: { lickId: lick.id } });
+export async function addOwnDeck(page: Page, count: number): Promise<string[]> {
+	const lickIds: string[] = [];
+	for (const demo of DEMO_LICKS.slice(0, count)) {
+		const res = await page.request.post('/api/licks', {
+			data: { title: demo.title, abc: demo.abc, note: demo.note }
+		});
 		expect(res.status(), await res.text()).toBe(201);
-		cardIds.push(...((await res.json()) as { cardIds: string[] }).cardIds);
+		lickIds.push(((await res.json()) as { id: string }).id);
 	}
-	return cardIds;
+	expect(lickIds).toHaveLength(count);
+	const deck = await page.request.post('/api/decks', {
+		data: { name: 'Tonight’s lines', lickIds }
+	});
+	expect(deck.status(), await deck.text()).toBe(201);
+	const deckId = ((await deck.json()) as { id: string }).id;
+	const cards = await page.request.post('/api/cards', { data: { deckId } });
+	expect(cards.status(), await cards.text()).toBe(201);
+	return ((await cards.json()) as { cardIds: string[] }).cardIds;
 }
 
 /** The card as the server has it, with its review history (newest first). */
@@ -86,18 +94,25 @@ export async function nextRecall(page: Page): Promise<string | null> {
 	throw new Error('No recall prompt within 20 lessons.');
 }
 
+/**
+ * Where the sitting is, read in one go: `done` once it has ended, else the progress line (read
+ * apart, the line could vanish between the two reads and leave a locator waiting for it).
+ */
+function sittingPlace(page: Page): Promise<string> {
+	return page.evaluate(() => {
+		const drill = document.querySelector('[data-testid="drill"]');
+		if (drill?.getAttribute('data-phase') === 'done') return 'done';
+		return document.querySelector('[data-testid="drill-progress"]')?.textContent ?? '';
+	});
+}
+
 /** Reveal the recall prompt on screen with the space bar and grade it with a number key. */
 export async function revealAndGrade(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
 	const prompt = page.getByTestId('prompt');
 	await page.keyboard.press('Space');
 	await expect(prompt).toHaveAttribute('data-revealed', 'yes');
 	await expect(page.getByRole('button', { name: /Nailed/ })).toBeVisible();
-	const progress = await page.getByTestId('drill-progress').textContent();
+	const before = await sittingPlace(page);
 	await page.keyboard.press(String(grade));
-	await expect
-		.poll(async () => {
-			if ((await page.getByTestId('drill').getAttribute('data-phase')) === 'done') return 'done';
-			return page.getByTestId('drill-progress').textContent();
-		})
-		.not.toBe(progress);
+	await expect.poll(() => sittingPlace(page)).not.toBe(before);
 }

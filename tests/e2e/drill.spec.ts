@@ -1,4 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
+import { DEMO_LICKS } from '../../src/lib/demo/licks';
 import { signInAsNew } from './support/accounts';
 import {
 	addOwnDeck,
@@ -217,4 +218,175 @@ for (const view of [
 test('the drill asks for a session', async ({ page }) => {
 	await page.goto('/drill');
 	await expect(page).toHaveURL(/\/sign-in\?next=%2Fdrill$/);
+});
+
+test('a sitting survives an offline reload: the service worker serves the drill and the place is kept', async ({
+	page,
+	context,
+	request
+}) => {
+	test.setTimeout(90_000);
+	await signInAsNew(page, request, 'learner');
+	await addOwnDeck(page, 3);
+	await page.goto('/drill');
+	await expect(page.getByTestId('drill')).toHaveAttribute('data-phase', 'start');
+	// The worker installs on this first visit and takes the page over.
+	await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, {
+		timeout: 30_000
+	});
+	await page.getByRole('button', { name: 'Start the drill' }).click();
+	await page.keyboard.press('Space');
+	await expect(page.getByTestId('drill-progress')).toHaveText('1 of 4 done');
+	const here = await promptNow(page);
+
+	await context.setOffline(true);
+	await page.reload();
+	await expect(page.getByTestId('drill')).toHaveAttribute('data-phase', 'sitting');
+	await expect(page.getByTestId('prompt')).toHaveAttribute('data-card', here.cardId);
+	await expect(page.getByTestId('drill-progress')).toHaveText('1 of 4 done');
+	// Notation renders from the kept files too.
+	await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
+	await expect(page.getByTestId('outbox-status')).toHaveText(
+		'No connection: keep going, grades are kept on this device.'
+	);
+	const cardId = await nextRecall(page);
+	await revealAndGrade(page, 3);
+	await expect(page.getByTestId('outbox-status')).toContainText('1 change waits');
+
+	await context.setOffline(false);
+	await expect(page.getByTestId('outbox-status')).toHaveText('All grades saved.', {
+		timeout: 15_000
+	});
+	const saved = await cardOnServer(page, cardId!);
+	expect(saved.reviews).toHaveLength(1);
+	expect(saved.reviews[0]).toMatchObject({ grade: 3, undoneAt: null });
+});
+
+test.describe('the screen kept on', () => {
+	/** Counts the page's wake lock requests and keeps the sentinels, around the real API. */
+	const spyOnWakeLock = () => {
+		const w = window as unknown as { wakeRequests: number; wakeSentinels: WakeLockSentinel[] };
+		w.wakeRequests = 0;
+		w.wakeSentinels = [];
+		const api = navigator.wakeLock;
+		if (!api) return;
+		const request = api.request.bind(api);
+		api.request = async (type) => {
+			w.wakeRequests++;
+			const sentinel = await request(type);
+			w.wakeSentinels.push(sentinel);
+			return sentinel;
+		};
+	};
+	const requests = (page: Page) =>
+		page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests);
+
+	test('a sitting holds a wake lock, and asks again when the page comes back', async ({
+		page,
+		request
+	}) => {
+		await page.addInitScript(spyOnWakeLock);
+		await signInAsNew(page, request, 'learner');
+		await addOwnDeck(page, 2);
+		await page.goto('/drill');
+		await expect(page.getByTestId('drill')).toHaveAttribute('data-phase', 'start');
+		expect(await requests(page)).toBe(0);
+		await page.getByRole('button', { name: 'Start the drill' }).click();
+		await expect(page.getByText('Screen kept on')).toBeVisible();
+		expect(await requests(page)).toBe(1);
+		// The browser lets the lock go when the page is hidden; coming back asks for it again.
+		await page.evaluate(async () => {
+			const w = window as unknown as { wakeSentinels: WakeLockSentinel[] };
+			await w.wakeSentinels[0].release();
+		});
+		await expect(page.getByText('Screen kept on')).toHaveCount(0);
+		await page.evaluate(() => document.dispatchEvent(new Event('visibilitychange')));
+		await expect(page.getByText('Screen kept on')).toBeVisible();
+		expect(await requests(page)).toBe(2);
+	});
+
+	for (const kind of ['missing', 'refused'] as const) {
+		test(`a browser whose wake lock is ${kind} drills on without a word about it`, async ({
+			page,
+			request
+		}) => {
+			const errors: string[] = [];
+			page.on('pageerror', (e) => errors.push(e.message));
+			await page.addInitScript((k) => {
+				if (k === 'missing') {
+					Object.defineProperty(Navigator.prototype, 'wakeLock', { get: () => undefined });
+				} else {
+					navigator.wakeLock.request = () =>
+						Promise.reject(new DOMException('Battery saver is on.', 'NotAllowedError'));
+				}
+			}, kind);
+			await signInAsNew(page, request, 'learner');
+			await addOwnDeck(page, 2);
+			await page.goto('/drill');
+			await page.getByRole('button', { name: 'Start the drill' }).click();
+			await expect(page.getByTestId('drill')).toHaveAttribute('data-phase', 'sitting');
+			const cardId = await nextRecall(page);
+			expect(cardId).toBeTruthy();
+			await revealAndGrade(page, 4);
+			await expect(page.getByTestId('outbox-status')).toHaveText('All grades saved.');
+			await expect(page.getByText('Screen kept on')).toHaveCount(0);
+			expect(errors).toEqual([]);
+		});
+	}
+});
+
+test('a teacher’s comment on a card is marked seen once the learner reaches that lick', async ({
+	page,
+	browser,
+	request
+}) => {
+	test.setTimeout(90_000);
+	const teacherContext = await browser.newContext();
+	const teacher = await teacherContext.newPage();
+	await signInAsNew(teacher, request, 'teacher');
+	const lick = await teacher.request.post('/api/licks', {
+		data: { title: DEMO_LICKS[0].title, abc: DEMO_LICKS[0].abc }
+	});
+	expect(lick.status(), await lick.text()).toBe(201);
+	const deck = await teacher.request.post('/api/decks', {
+		data: { name: 'Week one', lickIds: [((await lick.json()) as { id: string }).id] }
+	});
+	expect(deck.status(), await deck.text()).toBe(201);
+	const group = await teacher.request.post('/api/classes', { data: { name: 'Tuesday combo' } });
+	expect(group.status(), await group.text()).toBe(201);
+	const { id: classId, code } = (await group.json()) as { id: string; code: string };
+
+	await signInAsNew(page, request, 'learner');
+	const joined = await page.request.post('/api/classes/join', { data: { code } });
+	expect(joined.status(), await joined.text()).toBe(200);
+	const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10);
+	const assignment = await teacher.request.post(`/api/classes/${classId}/assignments`, {
+		data: {
+			deckId: ((await deck.json()) as { id: string }).id,
+			startDate: yesterday,
+			newPerDay: 1
+		}
+	});
+	expect(assignment.status(), await assignment.text()).toBe(201);
+	const today = await page.request.get('/api/drill/today');
+	const [item] = ((await today.json()) as { items: { cardId: string }[] }).items;
+	const comment = await teacher.request.post(`/api/cards/${item.cardId}/comments`, {
+		data: { text: 'Land the third on the downbeat.' }
+	});
+	expect(comment.status(), await comment.text()).toBe(201);
+	const seenAt = async () => {
+		const res = await teacher.request.get(`/api/cards/${item.cardId}/comments`);
+		return ((await res.json()) as { items: { seenAt: string | null }[] }).items[0].seenAt;
+	};
+
+	await page.goto('/drill');
+	await expect(page.getByTestId('drill')).toHaveAttribute('data-phase', 'start');
+	expect(await seenAt()).toBeNull();
+	await page.getByRole('button', { name: 'Start the drill' }).click();
+	// The new lick's lesson is its first reveal: the thread is shown there, and marked seen.
+	await expect(page.getByTestId('prompt')).toHaveAttribute('data-card', item.cardId);
+	await expect(page.getByRole('heading', { name: 'From your teacher' })).toBeVisible();
+	await expect(page.getByText('Land the third on the downbeat.')).toBeVisible();
+	await expect.poll(seenAt).not.toBeNull();
+	await teacherContext.close();
 });

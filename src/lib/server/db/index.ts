@@ -175,6 +175,47 @@ function serializeTransactions(sequelize: Sequelize, strict: boolean): void {
 	}
 }
 
+/** Where the dialect keeps the one connection every transaction of this process uses. */
+const WRITER = 'transactions';
+
+interface SqliteConnection {
+	close(callback?: (err: Error | null) => void): void;
+}
+
+interface SqliteConnectionManager {
+	connections: Record<string, SqliteConnection>;
+	getConnection(options?: { uuid?: string }): Promise<SqliteConnection>;
+	releaseConnection(connection: SqliteConnection, force?: boolean): void;
+	destroyConnection(connection: SqliteConnection): Promise<void>;
+}
+
+/**
+ * One connection for all of this process's transactions, kept open between them. The SQLite
+ * dialect opens a new connection for every transaction and closes it after (a file open and our
+ * pragmas each time, inside the one-at-a-time section above, so every write waited for them);
+ * transactions already run one at a time here, so one connection serves them all. A transaction
+ * that leaves it in doubt (a failed commit or rollback: Sequelize then destroys the connection)
+ * closes it, and the next transaction opens a fresh one.
+ */
+function shareTransactionConnection(sequelize: Sequelize): void {
+	const manager = sequelize.connectionManager as unknown as SqliteConnectionManager;
+	const get = manager.getConnection.bind(manager);
+	const release = manager.releaseConnection.bind(manager);
+	const destroy = manager.destroyConnection.bind(manager);
+	const isWriter = (c: SqliteConnection) => manager.connections[WRITER] === c;
+	manager.getConnection = (options = {}) =>
+		options.uuid && options.uuid !== 'default' ? get({ ...options, uuid: WRITER }) : get(options);
+	manager.releaseConnection = (connection, force) => {
+		if (isWriter(connection) && !force) return;
+		release(connection, force);
+	};
+	manager.destroyConnection = async (connection) => {
+		if (!isWriter(connection)) return destroy(connection);
+		delete manager.connections[WRITER];
+		await new Promise<void>((resolve) => connection.close(() => resolve()));
+	};
+}
+
 let current: Sequelize | null = null;
 
 /**
@@ -199,6 +240,7 @@ export function openDb(url: string, options: { strict?: boolean } = {}): Sequeli
 			logging: false
 		});
 		serializeTransactions(sequelize, options.strict ?? false);
+		if (storage !== ':memory:') shareTransactionConnection(sequelize);
 	} else if (/^postgres(ql)?:\/\//.test(url)) {
 		sequelize = new Sequelize(url, { dialect: 'postgres', logging: false });
 	} else {

@@ -358,10 +358,10 @@ async function answerFor(
 		// The card comes back today only if nothing has changed it since this review.
 		if (current === version && new Date(state.due) < end) {
 			try {
-				again = await promptForCard(learner, review.cardId, now);
+				// Not waiting for a busy engine: the grade is saved already, and without `again` the
+				// client shows the card again from the prompt it already holds.
+				again = await promptForCard(learner, review.cardId, now, 'refuse');
 			} catch (error) {
-				// The grade is saved whatever happens here; with the engine busy, the client
-				// shows the card again from the prompt it already holds.
 				if (!(error instanceof StudyError && error.status === 503)) throw error;
 			}
 		}

@@ -71,25 +71,31 @@ export async function promptNow(page: Page): Promise<{ cardId: string; mode: str
 	};
 }
 
+/** The prompt on screen as `card/mode`, or `done` once the sitting has ended (read in one go). */
+function promptPlace(page: Page): Promise<string> {
+	return page.evaluate(() => {
+		if (document.querySelector('[data-testid="drill"]')?.getAttribute('data-phase') === 'done') {
+			return 'done';
+		}
+		const p = document.querySelector('[data-testid="prompt"]');
+		return p ? `${p.getAttribute('data-card')}/${p.getAttribute('data-mode')}` : '';
+	});
+}
+
 /**
  * Go through lessons (space ends each) until a recall prompt is up; answers its card id, or null
  * when the sitting ended first.
  */
 export async function nextRecall(page: Page): Promise<string | null> {
 	for (let i = 0; i < 20; i++) {
-		if ((await page.getByTestId('drill').getAttribute('data-phase')) === 'done') return null;
-		const { cardId, mode } = await promptNow(page);
+		await expect.poll(() => promptPlace(page)).not.toBe('');
+		const place = await promptPlace(page);
+		if (place === 'done') return null;
+		const [cardId, mode] = place.split('/');
 		if (mode === 'recall') return cardId;
 		await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
 		await page.keyboard.press('Space');
-		await expect
-			.poll(async () => {
-				const phase = await page.getByTestId('drill').getAttribute('data-phase');
-				if (phase === 'done') return 'moved';
-				const p = page.getByTestId('prompt');
-				return `${await p.getAttribute('data-card')}/${await p.getAttribute('data-mode')}`;
-			})
-			.not.toBe(`${cardId}/${mode}`);
+		await expect.poll(() => promptPlace(page)).not.toBe(place);
 	}
 	throw new Error('No recall prompt within 20 lessons.');
 }
@@ -108,9 +114,13 @@ function sittingPlace(page: Page): Promise<string> {
 
 /** Reveal the recall prompt on screen with the space bar and grade it with a number key. */
 export async function revealAndGrade(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
-	const prompt = page.getByTestId('prompt');
 	await page.keyboard.press('Space');
-	await expect(prompt).toHaveAttribute('data-revealed', 'yes');
+	await gradeRevealed(page, grade);
+}
+
+/** Grade the revealed prompt with a number key and wait until the sitting has moved on. */
+export async function gradeRevealed(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
+	await expect(page.getByTestId('prompt')).toHaveAttribute('data-revealed', 'yes');
 	await expect(page.getByRole('button', { name: /Nailed/ })).toBeVisible();
 	const before = await sittingPlace(page);
 	await page.keyboard.press(String(grade));

@@ -17,6 +17,7 @@ import {
 	parsePitchName,
 	type SpelledNote
 } from './pitch';
+import { chordShape, type ChordShape } from './chord-shape';
 import { BASE_LABELS, LABEL_NUMBER } from './qualities-data';
 import { qualityTable, type DegreeLabel, type DegreeRole } from './qualities';
 import {
@@ -95,10 +96,48 @@ export function degreeAt(semitones: number, quality: QualityId | null): Degree {
 	return row[mod12(semitones)];
 }
 
+/** Degrees read from a chord symbol's own tones, by shape (a lick holds a handful of shapes). */
+const shapeDegrees = new WeakMap<ChordShape, (Degree | undefined)[]>();
+
 /**
- * Degree of a pitch over a chord, by semitones in context.
+ * The degree at some semitones above the root of a chord symbol: from the symbol's own chord
+ * tones first (over CmMaj7, 3 semitones is the b3; over C7#9, 7 is the 5, a chord tone), then
+ * from the quality it reduces to.
+ * @example degreeInShape(chordShape(chordOf('CmMaj7')), 3, null).label // 'b3'
+ */
+export function degreeInShape(
+	shape: ChordShape,
+	semitones: number,
+	quality: QualityId | null
+): Degree {
+	const s = mod12(semitones);
+	let row = shapeDegrees.get(shape);
+	if (!row) {
+		row = new Array(12);
+		shapeDegrees.set(shape, row);
+	}
+	let d = row[s];
+	if (!d) {
+		const label = shape.labels[s];
+		const role = shape.roles[s];
+		d =
+			label && role
+				? Object.freeze({ label, semitones: s, number: LABEL_NUMBER[label], role })
+				: degreeAt(s, quality);
+		row[s] = d;
+	}
+	return d;
+}
+
+/**
+ * Degree of a pitch over a chord, by semitones in context, read from the chord symbol's own
+ * tones and its quality's scale.
  * @example degreeOf('G4', { symbol: 'E7', root: 'E', quality: '7', bass: null }) // #9, tension
  */
 export function degreeOf(pitch: NoteName | PitchName, chord: ChordContext): Degree {
-	return degreeAt(chromaOfName(pitch) - chromaOfName(chord.root), chord.quality);
+	return degreeInShape(
+		chordShape(chord),
+		chromaOfName(pitch) - chromaOfName(chord.root),
+		chord.quality
+	);
 }

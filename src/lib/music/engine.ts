@@ -8,7 +8,7 @@ import { speakWarnings, type Speaker } from './speech';
 import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { formatChordSymbol, parseChordSymbol } from './chord-symbol';
-import { degreeAt, readNote, type Degree, type DegreeLabel } from './degrees';
+import { degreeInShape, readNote, type Degree, type DegreeLabel } from './degrees';
 import { chordShape, type ChordShape } from './chord-shape';
 import { remapNotes } from './remap';
 import { analyseNotes, type Device } from './analysis';
@@ -526,17 +526,11 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		const chord = ci < 0 ? null : concertChords.contexts[ci];
 		let label: DegreeLabel | null = null;
 		let role: VariantNote['role'] = null;
-		if (chord) {
-			const s = mod12(midi - concertChords.rootChromas[ci]);
-			const shape = layer.shapes[ci];
-			if (shape?.labels[s]) {
-				label = shape.labels[s];
-				role = shape.roles[s];
-			} else {
-				const degree = degreeAt(s, chord.quality);
-				label = degree.label;
-				role = degree.role;
-			}
+		const shape = ci < 0 ? null : layer.shapes[ci];
+		if (chord && shape) {
+			const degree = degreeInShape(shape, midi - concertChords.rootChromas[ci], chord.quality);
+			label = degree.label;
+			role = degree.role;
 		}
 		notes[h.sounding] = {
 			index: src.index,

@@ -11,6 +11,7 @@
  * - A chord whose quality is unknown still gets names (as over a dominant) with role 'unknown'.
  */
 import {
+	chromaOf,
 	mod12,
 	MusicInvariantError,
 	parseNoteName,
@@ -75,15 +76,13 @@ export function readNote(name: NoteName | PitchName): SpelledNote {
 	return n;
 }
 
-const LETTER_SEMIS = [0, 2, 4, 5, 7, 9, 11];
-
 /**
  * Pitch class (0..11) of a note or pitch name.
  * @example chromaOfName('Bb3') // 10
  */
 export function chromaOfName(name: NoteName | PitchName): number {
 	const n = readNote(name);
-	return mod12(LETTER_SEMIS[n.letter] + n.alt);
+	return mod12(chromaOf(n));
 }
 
 /**

@@ -158,6 +158,10 @@ function readTokens(
 	const elements: Element[] = [];
 	const chordSymbols: ParsedChordSymbol[] = [];
 	let propagation: Propagation = 'pitch';
+	// Whether the lick says how far its accidentals reach; when it does not, a note that reads
+	// differently by letter and by letter-and-octave gets a warning.
+	let propagationDeclared = false;
+	let readingWarned = false;
 	let meter = '';
 	let headerMeter = '';
 	let tempo: number | null = null;
@@ -166,8 +170,12 @@ function readTokens(
 	let inBody = false;
 	let currentKey = -1;
 	let sawKey = false;
-	// Bar-scoped accidentals: by letter ('pitch') or letter and octave ('octave').
-	let barAlts = new Map<number, number>();
+	// Bar-scoped accidentals, both ways: by letter ('pitch') and by letter and octave ('octave').
+	let byLetter = new Map<number, number>();
+	let byOctave = new Map<number, number>();
+	// Alterations tied into the next note, by letter and octave: `^G-|G` is one G♯ (a tie carries
+	// its accidental over the bar line, for the tied note only; engraving practice).
+	let tieCarry: Map<number, number> | null = null;
 	let chordIndex = -1;
 	let inChord: Element | null = null;
 	let inGrace = false;
@@ -186,6 +194,11 @@ function readTokens(
 			pendingBroken = null;
 		}
 		elements.push(el);
+		tieCarry = null;
+		for (const hi of el.ties) {
+			const p = heads[hi].pitch;
+			(tieCarry ??= new Map()).set(p.letter + 7 * (p.octave + 10), p.alt);
+		}
 	};
 
 	for (let ti = 0; ti < tokens.length; ti++) {
@@ -199,7 +212,8 @@ function readTokens(
 					inBody = false;
 					headerMeter = '';
 					headerUnit = null;
-					barAlts = new Map();
+					byLetter = new Map();
+					byOctave = new Map();
 					chordIndex = -1;
 				}
 				if (!KNOWN_FIELDS.includes(name)) {
@@ -262,8 +276,10 @@ function readTokens(
 			case 'directive': {
 				const m = /^propagate-accidentals\s+(\S+)/.exec(t.value ?? '');
 				if (m) {
-					if (m[1] === 'pitch' || m[1] === 'octave' || m[1] === 'not') propagation = m[1];
-					else
+					if (m[1] === 'pitch' || m[1] === 'octave' || m[1] === 'not') {
+						propagation = m[1];
+						propagationDeclared = true;
+					} else
 						warnings.push({
 							code: 'unknown-directive',
 							message: `Line ${t.line}: %%propagate-accidentals takes not, octave or pitch; “${m[1]}” is ignored.`
@@ -275,7 +291,8 @@ function readTokens(
 				inBody = false;
 				break;
 			case 'bar':
-				barAlts = new Map();
+				byLetter = new Map();
+				byOctave = new Map();
 				if (inChord) return fail('A bar line cannot stand inside a chord [ ].', t);
 				break;
 			case 'chord-symbol':
@@ -323,13 +340,24 @@ function readTokens(
 				let octave = letterText === letterText.toLowerCase() ? 5 : 4;
 				for (const ch of marks) octave += ch === "'" ? 1 : -1;
 				const acc = t.accidental as string;
-				const barKey = propagation === 'octave' ? letter + 7 * (octave + 10) : letter;
+				const slot = letter + 7 * (octave + 10);
+				const sig = keys[currentKey].key.accidentals[letter];
 				let alt: number;
+				const carried = inGrace ? undefined : tieCarry?.get(slot);
 				if (acc !== '') {
 					alt = ACCIDENTAL_ALT[acc];
-					if (propagation !== 'not') barAlts.set(barKey, alt);
+					byLetter.set(letter, alt);
+					byOctave.set(slot, alt);
+				} else if (carried !== undefined) {
+					alt = carried;
 				} else {
-					alt = barAlts.get(barKey) ?? keys[currentKey].key.accidentals[letter];
+					const asPitch = byLetter.get(letter) ?? sig;
+					const asOctave = byOctave.get(slot) ?? sig;
+					alt = propagation === 'pitch' ? asPitch : propagation === 'octave' ? asOctave : sig;
+					if (asPitch !== asOctave && !propagationDeclared && !readingWarned) {
+						readingWarned = true;
+						warnings.push(readingWarning(t, letter, octave, asPitch, asOctave));
+					}
 				}
 				const pitch = { letter, alt, octave };
 				const head: NoteHead = {
@@ -480,6 +508,30 @@ function readTokens(
 			propagation,
 			warnings
 		}
+	};
+}
+
+/**
+ * The warning for a note whose pitch depends on how far an accidental reaches (abc 2.1 §11.3):
+ * the standard's default reads it by letter in every octave; engraved music (and many abc
+ * programs) by letter in its own octave. The lick is read the standard's way.
+ */
+function readingWarning(
+	t: Token,
+	letter: number,
+	octave: number,
+	asPitch: number,
+	asOctave: number
+): MusicWarning {
+	const name = (alt: number) => LETTERS[letter] + (alt > 0 ? '♯'.repeat(alt) : '♭'.repeat(-alt));
+	const text = t.text.trim();
+	const fix = (alt: number) =>
+		(['__', '_', '=', '^', '^^'][alt + 2] ?? '') + text.replace(/^[_=^]+/, '');
+	return {
+		code: 'accidental-reading',
+		message:
+			`Line ${t.line}, column ${t.column}: “${text}” sounds ${name(asPitch)}${octave} if an accidental holds for its letter in every octave of the bar (abc 2.1 §11.3, the standard's default, which is how it is read here) ` +
+			`but ${name(asOctave)}${octave} if it holds in its own octave only, as in engraved music. Write ${fix(asPitch)} or ${fix(asOctave)} to say which you mean.`
 	};
 }
 

@@ -228,14 +228,14 @@ function prepareOne(abc: string): PrepareResult {
 	const own: QualityLayer = {
 		quality,
 		pitches: tune.heads.map((h) => h.pitch),
-		chordTexts: tune.chordSymbols.map((c) => tune.tokens[c.token].value as string),
+		chordTexts: tune.chordSymbols.map((c) => c.text),
 		contexts: tune.chordSymbols.map((c) => c.context),
 		shapes: tune.chordSymbols.map((c) => c.context && chordShape(c.context)),
 		warnings: []
 	};
 	// A quoted text that names no chord stays as written; say so rather than drop it silently.
 	const unread = tune.chordSymbols
-		.map((c) => tune.tokens[c.token].value as string)
+		.map((c) => c.text)
 		.filter((text, i) => tune.chordSymbols[i].context === null && !/^\s*N\.?C\.?\s*$/i.test(text));
 	if (unread.length) {
 		tune.warnings.push({
@@ -322,7 +322,7 @@ function layerFor(lick: PreparedLick, quality: QualityId | null): QualityLayer {
 	const contexts: (ChordContext | null)[] = [];
 	tune.chordSymbols.forEach((cs) => {
 		const c = cs.context;
-		const text = tune.tokens[cs.token].value as string;
+		const text = cs.text;
 		const rooted = c && parseNoteName(c.root);
 		if (c && rooted && (c.quality === from || chromaOf(rooted) === homeChroma)) {
 			const symbol = formatChordSymbol({ root: c.root, suffix: quality, bass: c.bass });

@@ -379,7 +379,12 @@ const untouched = (abc: string) => {
 	const r = tokenize(abc);
 	if (!r.ok) throw new Error(r.error.message);
 	return r.tokens
-		.filter((t) => t.kind !== 'note' && t.kind !== 'chord-symbol' && t.name !== 'K')
+		.filter(
+			(t) =>
+				t.kind !== 'note' &&
+				t.kind !== 'chord-symbol' &&
+				!((t.kind === 'field' || t.kind === 'inline-field') && t.name === 'K')
+		)
 		.map((t) => t.text);
 };
 

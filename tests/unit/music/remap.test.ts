@@ -391,7 +391,7 @@ describe('remapNotes as a teacher would write it', () => {
 	it('writes the chromatic notes it moved on the side their gesture leans, never G♭ beside D♯', () => {
 		// common practice: one gesture is written on one side; the chord's tensions (the b5 of
 		// C7alt is G♭, altered scale after tonal 6.5.1 Scale.get('C altered')) set the side.
-		const lean = (root: string, p: string) => {
+		const lean = (root: string, p: string): number => {
 			const q = Interval.get(Interval.distance(root, pc(p))).q;
 			return q === 'm' || q === 'd' ? -1 : q === 'A' ? 1 : 0;
 		};

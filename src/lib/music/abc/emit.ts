@@ -146,6 +146,8 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 				}
 				// An unchanged note keeps its own text (`b,,` stays `b,,`, not `B,`).
 				const q = head.pitch;
+				if (t.kind !== 'note')
+					throw new RangeError('A note head points at a token that is no note');
 				if (
 					acc === t.accidental &&
 					q.letter === p.letter &&
@@ -153,7 +155,7 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 					q.octave === p.octave
 				) {
 					out += t.text;
-				} else out += acc + abcLetter(p) + (t.length as string);
+				} else out += acc + abcLetter(p) + t.length;
 				break;
 			}
 			case Step.Chord:

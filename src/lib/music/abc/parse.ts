@@ -32,6 +32,8 @@ export interface NoteHead {
 
 export interface ParsedChordSymbol {
 	token: number;
+	/** The symbol as written, without quotes. */
+	text: string;
 	context: ChordContext | null;
 }
 
@@ -175,7 +177,7 @@ function readTokens(
 	let byOctave = new Map<number, number>();
 	// Alterations tied into the next note, by letter and octave: `^G-|G` is one G♯ (a tie carries
 	// its accidental over the bar line, for the tied note only; engraving practice).
-	let tieCarry: Map<number, number> | null = null;
+	const tieCarry = new Map<number, number>();
 	let chordIndex = -1;
 	let inChord: Element | null = null;
 	let inGrace = false;
@@ -194,10 +196,10 @@ function readTokens(
 			pendingBroken = null;
 		}
 		elements.push(el);
-		tieCarry = null;
+		tieCarry.clear();
 		for (const hi of el.ties) {
 			const p = heads[hi].pitch;
-			(tieCarry ??= new Map()).set(p.letter + 7 * (p.octave + 10), p.alt);
+			tieCarry.set(p.letter + 7 * (p.octave + 10), p.alt);
 		}
 	};
 
@@ -206,8 +208,7 @@ function readTokens(
 		switch (t.kind) {
 			case 'field':
 			case 'inline-field': {
-				const name = t.name as string;
-				const value = t.value as string;
+				const { name, value } = t;
 				if (t.kind === 'field' && name === 'X') {
 					inBody = false;
 					headerMeter = '';
@@ -274,7 +275,7 @@ function readTokens(
 				break;
 			}
 			case 'directive': {
-				const m = /^propagate-accidentals\s+(\S+)/.exec(t.value ?? '');
+				const m = /^propagate-accidentals\s+(\S+)/.exec(t.value);
 				if (m) {
 					if (m[1] === 'pitch' || m[1] === 'octave' || m[1] === 'not') {
 						propagation = m[1];
@@ -298,7 +299,8 @@ function readTokens(
 			case 'chord-symbol':
 				chordSymbols.push({
 					token: ti,
-					context: readChord ? readChord(t.value as string) : null
+					text: t.value,
+					context: readChord ? readChord(t.value) : null
 				});
 				chordIndex = chordSymbols.length - 1;
 				break;
@@ -312,10 +314,11 @@ function readTokens(
 				inChord = { heads: [], base: 0, factor: 1, chord: chordIndex, ties: [], rest: false };
 				break;
 			case 'chord-close': {
-				const el = inChord as Element;
+				const el = inChord;
+				if (!el) return fail('This ] closes no chord: there is no [ before it.', t);
 				inChord = null;
 				if (el.heads.length === 0) return fail('This chord [ ] holds no notes.', t);
-				const mult = lengthMultiplier(t.length ?? '');
+				const mult = lengthMultiplier(t.length);
 				if (mult === null) return fail(`“${t.length}” is not a note length.`, t);
 				el.base *= mult;
 				if (tokens[ti + 1]?.kind === 'tie') el.ties.push(...el.heads);
@@ -327,23 +330,23 @@ function readTokens(
 				if (currentKey < 0 || unitLength === null) {
 					return fail('Music starts before the K: line; write a K: field first.', t);
 				}
-				const mult = lengthMultiplier(t.length ?? '');
+				const mult = lengthMultiplier(t.length);
 				if (mult === null) {
 					return fail(
 						`“${t.length}” is not a note length we read: write 2, /2, 3/2 or /, from /128 to 128 units.`,
 						t
 					);
 				}
-				const letterText = t.letter as string;
+				const letterText = t.letter;
 				const letter = LETTERS.indexOf(letterText.toUpperCase());
-				const marks = t.octave as string;
+				const marks = t.octave;
 				let octave = letterText === letterText.toLowerCase() ? 5 : 4;
 				for (const ch of marks) octave += ch === "'" ? 1 : -1;
-				const acc = t.accidental as string;
+				const acc = t.accidental;
 				const slot = letter + 7 * (octave + 10);
 				const sig = keys[currentKey].key.accidentals[letter];
 				let alt: number;
-				const carried = inGrace ? undefined : tieCarry?.get(slot);
+				const carried = inGrace ? undefined : tieCarry.get(slot);
 				if (acc !== '') {
 					alt = ACCIDENTAL_ALT[acc];
 					byLetter.set(letter, alt);
@@ -372,7 +375,7 @@ function readTokens(
 				heads.push(head);
 				const hi = heads.length - 1;
 				if (inGrace) break;
-				const base = (unitLength as number) * mult;
+				const base = unitLength * mult;
 				const tied = tokens[ti + 1]?.kind === 'tie';
 				if (inChord) {
 					if (inChord.heads.length === 0) inChord.base = base;
@@ -402,7 +405,7 @@ function readTokens(
 					}
 					base = bars * (meterLength(meter) ?? 1);
 				} else {
-					const mult = lengthMultiplier(t.length ?? '');
+					const mult = lengthMultiplier(t.length);
 					if (mult === null) return fail(`“${t.length}” is not a rest length.`, t);
 					base = unitLength * mult;
 				}
@@ -411,7 +414,7 @@ function readTokens(
 				break;
 			}
 			case 'tuplet': {
-				const [p, q, r] = t.tuplet as [number, number, number];
+				const [p, q, r] = t.tuplet;
 				tuplet = { factor: (q || tupletQ(p, meter)) / p, left: r || p };
 				break;
 			}
@@ -450,8 +453,12 @@ function readTokens(
 		});
 	}
 	if (pendingBroken) {
-		const t = tokens.findLast((x) => x.kind === 'broken-rhythm') as Token;
-		return fail(`The broken rhythm ${t.text} needs a note after it, as in A>B.`, t);
+		const t = tokens.findLast((x) => x.kind === 'broken-rhythm');
+		const text = t?.text ?? '>';
+		return fail(
+			`The broken rhythm ${text} needs a note after it, as in A>B.`,
+			t ?? { line: 1, column: 1 }
+		);
 	}
 
 	// Second pass: onsets, tie merging, sounding notes.

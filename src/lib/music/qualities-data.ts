@@ -250,6 +250,32 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 	}
 ];
 
+/** Each quality in a sentence, lower case: “over a half-diminished chord”. */
+export const QUALITY_WORDS: Readonly<Record<QualityId, string>> = {
+	'7': 'dominant 7th',
+	m7: 'minor 7th',
+	maj7: 'major 7th',
+	m7b5: 'half-diminished',
+	'7alt': 'altered',
+	dim7: 'diminished 7th',
+	'6': 'major 6th',
+	m6: 'minor 6th',
+	'7sus4': 'suspended'
+};
+
+/** Each quality's symbol with real signs, for a table cell. */
+export const QUALITY_SYMBOLS: Readonly<Record<QualityId, string>> = {
+	'7': '7',
+	m7: 'm7',
+	maj7: 'maj7',
+	m7b5: 'm7♭5',
+	'7alt': '7alt',
+	dim7: 'dim7',
+	'6': '6',
+	m6: 'm6',
+	'7sus4': '7sus4'
+};
+
 /** How a picker names each quality: the word a teacher says, then the symbol. */
 export const QUALITY_LABELS: Readonly<Record<QualityId, string>> = {
 	'7': 'Dominant (7)',

@@ -528,19 +528,24 @@ function leanOneWay(job: Job): void {
 			notes[b].start <= notes[b - 1].start + notes[b - 1].duration + 1e-9
 		)
 			b++;
+		let moved = 0;
+		for (let i = a; i < b; i++)
+			if (roots[i] && midis[i] !== notes[i].midi && T.roles[landedAt(job, i)] === 'chromatic')
+				moved++;
+		if (moved === 0) {
+			a = b;
+			continue;
+		}
 		let fixed = 0;
 		let source = 0;
-		let moved = 0;
 		for (let i = a; i < b; i++) {
 			const root = roots[i];
 			if (!root) continue;
-			const role = T.roles[landedAt(job, i)];
-			if (role === 'tension') fixed += leanOf(root, pitches[i]);
+			if (T.roles[landedAt(job, i)] === 'tension') fixed += leanOf(root, pitches[i]);
 			if (job.F.roles[job.semis[i]] !== 'chord-tone') source += leanOf(root, notes[i].pitch);
-			if (role === 'chromatic' && midis[i] !== notes[i].midi) moved++;
 		}
 		const want = fixed !== 0 ? Math.sign(fixed) : source > 0 ? 1 : -1;
-		for (let i = a; moved > 0 && i < b; i++) {
+		for (let i = a; i < b; i++) {
 			const root = roots[i];
 			if (!root || midis[i] === notes[i].midi) continue;
 			if (T.roles[landedAt(job, i)] !== 'chromatic') continue;

@@ -127,14 +127,10 @@ describe('degreeOf', () => {
 	});
 
 	it.each([
-		// reference: tonal 6.5.1 ChordType.get(<suffix>).intervals (run)
+		// reference: tonal 6.5.1 ChordType.get(<suffix>).intervals (run); the engine's answer over
+		// CmMaj7, C7#9, C13 and C7b13 is checked in chord-spelling.test.ts
 		['CmMaj7', 'Eb4', 'b3', 'chord-tone'],
-		['CmMaj7', 'B4', '7', 'chord-tone'],
-		['C7#9', 'G4', '5', 'chord-tone'],
-		['C7#9', 'Eb4', '#9', 'chord-tone'],
-		['C7b13', 'Ab4', 'b13', 'chord-tone'],
 		['C7#11', 'F#4', '#11', 'chord-tone'],
-		['C13', 'A4', '13', 'chord-tone'],
 		['C9', 'D4', '9', 'chord-tone'],
 		['Cmaj7#11', 'F#4', '#11', 'chord-tone'],
 		['Cmaj7#11', 'B4', '7', 'chord-tone']

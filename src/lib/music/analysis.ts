@@ -13,7 +13,7 @@
  * Device indices are the notes' own `index` values; `end` is inclusive.
  */
 import { degreeOf, readNote, type Degree, type DegreeLabel } from './degrees';
-import { LETTER_SEMITONES, LETTERS, type SpelledNote } from './pitch';
+import { formatNoteName, LETTER_SEMITONES } from './pitch';
 import type { ChordContext, PitchName, SoundingNote } from './types';
 
 export type DeviceKind = 'arpeggio' | 'chromatic-fill' | 'enclosure' | 'leap';
@@ -85,9 +85,7 @@ const SOUNDS: Record<string, Record<string, string>> = {
 	m7b5: { 'b3 b5 b7 9': 'm9b5', 'b3 b5 b7': 'm7b5' }
 };
 
-const nameOf = (n: SpelledNote): string =>
-	LETTERS[n.letter] + (n.alt > 0 ? '#'.repeat(n.alt) : 'b'.repeat(-n.alt));
-const letterName = (pitch: PitchName): string => nameOf(readNote(pitch));
+const letterName = (pitch: PitchName): string => formatNoteName(readNote(pitch));
 const sameChord = (a: ChordContext | null, b: ChordContext | null): boolean =>
 	a === b || (!!a && !!b && a.symbol === b.symbol);
 const onBeat = (start: number): boolean => Math.abs(start * 4 - Math.round(start * 4)) < 1e-9;

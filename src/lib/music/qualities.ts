@@ -5,7 +5,7 @@
  */
 import {
 	LETTER_SEMITONES,
-	LETTERS,
+	formatNoteName,
 	mod12,
 	MusicInvariantError,
 	parseNoteName,
@@ -191,7 +191,7 @@ function spellAbove(root: NoteName, intervals: readonly string[]): NoteName[] {
 		let alt = r.alt + iv.semitones - natural;
 		while (alt > 6) alt -= 12;
 		while (alt < -6) alt += 12;
-		return LETTERS[letter] + (alt > 0 ? '#'.repeat(alt) : 'b'.repeat(-alt));
+		return formatNoteName({ letter, alt });
 	});
 }
 

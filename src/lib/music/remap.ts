@@ -28,8 +28,9 @@
  * are not the chord being re-mapped); notes before any chord use `options.root`.
  */
 import {
+	formatNoteName,
+	formatPitch,
 	LETTER_SEMITONES,
-	LETTERS,
 	mod12,
 	MusicInvariantError,
 	type SpelledNote,
@@ -136,17 +137,6 @@ for (const from of QUALITY_IDS)
 const LS: readonly number[] = [...LETTER_SEMITONES];
 const DESC: readonly Steps[] = [...DESCENDING_SPELLING];
 const ASC: readonly Steps[] = [...ASCENDING_SPELLING];
-const ACCIDENTALS = ['bb', 'b', '', '#', '##'];
-/** NAMES[letter][alt + 2]: 'Cbb' … 'B##'. */
-const NAMES: readonly (readonly string[])[] = [...LETTERS].map((l) =>
-	ACCIDENTALS.map((a) => l + a)
-);
-
-/** PITCH_NAMES[(letter * 5 + alt + 2) * 12 + octave + 1] for octaves -1..10: no string building. */
-const PITCH_NAMES: readonly string[] = NAMES.flatMap((byAlt) =>
-	byAlt.flatMap((name) => Array.from({ length: 12 }, (_, o) => name + (o - 1)))
-);
-
 /** Spell a pitch at `midi` as an interval above a root, without double accidentals. */
 function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
 	let letter = (root.letter + iv.steps) % 7;
@@ -158,12 +148,11 @@ function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
 		alt = smallestMove(LS[letter], pc);
 	}
 	const octave = Math.floor((midi - LS[letter] - alt) / 12) - 1;
-	if (octave < -1 || octave > 10) return NAMES[letter][alt + 2] + octave;
-	return PITCH_NAMES[(letter * 5 + alt + 2) * 12 + octave + 1];
+	return formatPitch({ letter, alt, octave });
 }
 
 function symbolOf(root: SpelledNote, quality: QualityId): string {
-	return chordMark(NAMES[root.letter][root.alt + 2] + quality);
+	return chordMark(formatNoteName(root) + quality);
 }
 
 /** Marked names for warning templates: the source pitch of note i, its re-mapped pitch. */
@@ -555,7 +544,7 @@ function leanOneWay(job: Job): void {
 			const alt = smallestMove(LS[letter], mod12(midis[i]));
 			if (alt > 1 || alt < -1) continue;
 			const octave = Math.floor((midis[i] - LS[letter] - alt) / 12) - 1;
-			pitches[i] = NAMES[letter][alt + 2] + octave;
+			pitches[i] = formatPitch({ letter, alt, octave });
 		}
 		a = b;
 	}

@@ -96,36 +96,44 @@ export function degreeAt(semitones: number, quality: QualityId | null): Degree {
 }
 
 /** Degrees read from a chord symbol's own tones, by shape (a lick holds a handful of shapes). */
-const shapeDegrees = new WeakMap<ChordShape, (Degree | undefined)[]>();
+const shapeDegrees = new WeakMap<ChordShape, Map<QualityId | null, readonly Degree[]>>();
 
 /**
- * The degree at some semitones above the root of a chord symbol: from the symbol's own chord
- * tones first (over CmMaj7, 3 semitones is the b3; over C7#9, 7 is the 5, a chord tone), then
- * from the quality it reduces to.
- * @example degreeInShape(chordShape(chordOf('CmMaj7')), 3, null).label // 'b3'
+ * The twelve degrees over a chord symbol, by semitones above its root: from the symbol's own
+ * chord tones first (over CmMaj7, 3 semitones is the b3; over C7#9, 7 is the 5, a chord tone),
+ * then from the quality it reduces to. Built once per shape and quality.
+ * @example degreesOfShape(chordShape(chordOf('CmMaj7')), null)[3].label // 'b3'
+ */
+export function degreesOfShape(shape: ChordShape, quality: QualityId | null): readonly Degree[] {
+	let byQuality = shapeDegrees.get(shape);
+	if (!byQuality) {
+		byQuality = new Map();
+		shapeDegrees.set(shape, byQuality);
+	}
+	let row = byQuality.get(quality);
+	if (!row) {
+		row = Array.from({ length: 12 }, (_, s) => {
+			const label = shape.labels[s];
+			const role = shape.roles[s];
+			return label && role
+				? Object.freeze({ label, semitones: s, number: LABEL_NUMBER[label], role })
+				: degreeAt(s, quality);
+		});
+		byQuality.set(quality, row);
+	}
+	return row;
+}
+
+/**
+ * The degree at some semitones above the root of a chord symbol (see `degreesOfShape`).
+ * @example degreeInShape(chordShape(chordOf('C7#9')), 7, '7alt').label // '5'
  */
 export function degreeInShape(
 	shape: ChordShape,
 	semitones: number,
 	quality: QualityId | null
 ): Degree {
-	const s = mod12(semitones);
-	let row = shapeDegrees.get(shape);
-	if (!row) {
-		row = new Array(12);
-		shapeDegrees.set(shape, row);
-	}
-	let d = row[s];
-	if (!d) {
-		const label = shape.labels[s];
-		const role = shape.roles[s];
-		d =
-			label && role
-				? Object.freeze({ label, semitones: s, number: LABEL_NUMBER[label], role })
-				: degreeAt(s, quality);
-		row[s] = d;
-	}
-	return d;
+	return degreesOfShape(shape, quality)[mod12(semitones)];
 }
 
 /**

@@ -6,7 +6,7 @@ import { chordTemplate, emitAbc, transposeChordSymbol } from './abc/emit';
 import { speakWarnings, type Speaker } from './speech';
 import { type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
-import { degreeInShape, readNote, type Degree, type DegreeLabel } from './degrees';
+import { degreesOfShape, readNote, type Degree, type DegreeLabel } from './degrees';
 import { analyseNotes, type Device } from './analysis';
 import {
 	fitToRange,
@@ -291,6 +291,10 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		octaveShift === 0
 			? concertPitches
 			: concertPitches.map((p) => ({ ...p, octave: p.octave + octaveShift }));
+	// Degrees by semitones over each chord symbol, read once per symbol rather than once per note.
+	const rows = layer.shapes.map(
+		(shape, ci) => shape && degreesOfShape(shape, concertChords.contexts[ci]?.quality ?? null)
+	);
 	const notes: VariantNote[] = new Array(tune.notes.length);
 	const { heads } = tune;
 	// What the learner reads, for sentences about the line: the written part when it differs.
@@ -306,9 +310,9 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		const chord = ci < 0 ? null : concertChords.contexts[ci];
 		let label: DegreeLabel | null = null;
 		let role: VariantNote['role'] = null;
-		const shape = ci < 0 ? null : layer.shapes[ci];
-		if (chord && shape) {
-			const degree = degreeInShape(shape, midi - concertChords.rootChromas[ci], chord.quality);
+		const row = ci < 0 ? null : rows[ci];
+		if (chord && row) {
+			const degree = row[mod12(midi - concertChords.rootChromas[ci])];
 			label = degree.label;
 			role = degree.role;
 		}

@@ -93,15 +93,15 @@ export function checkPasswordLength(password: string): PasswordCheck {
 		const count = [...password].length;
 		return {
 			ok: false,
-			message: passwordRefusal(
-				`Too short: ${count} ${count === 1 ? 'character' : 'characters'}.`
-			)
+			message: passwordRefusal(`Too short: ${count} ${count === 1 ? 'character' : 'characters'}.`)
 		};
 	}
 	if (password.length > MAX_PASSWORD_LENGTH) {
 		return {
 			ok: false,
-			message: passwordRefusal(`Too long: we keep passwords of up to ${MAX_PASSWORD_LENGTH} characters.`)
+			message: passwordRefusal(
+				`Too long: we keep passwords of up to ${MAX_PASSWORD_LENGTH} characters.`
+			)
 		};
 	}
 	return { ok: true };

@@ -297,14 +297,17 @@ describe('weak passwords', () => {
 		}
 	);
 
-	test('a password built on the owner\'s name is refused with that reason', async () => {
+	test("a password built on the owner's name is refused with that reason", async () => {
 		const result = await signUp({
 			email: address(),
 			password: 'Marguerite Oduya 1',
 			name: 'Marguerite Oduya',
 			role: 'learner'
 		});
-		expect(result).toMatchObject({ field: 'password', message: expect.stringMatching(/your name/) });
+		expect(result).toMatchObject({
+			field: 'password',
+			message: expect.stringMatching(/your name/)
+		});
 	});
 });
 

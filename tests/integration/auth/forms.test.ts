@@ -100,7 +100,9 @@ describe('the account forms', () => {
 			data: {
 				form: {
 					data: { name: 'Form Player', email: 'form2@example.test', role: 'learner', password: '' },
-					errors: { password: [expect.stringMatching(/^Too short: 5 characters\. Use at least 10/)] }
+					errors: {
+						password: [expect.stringMatching(/^Too short: 5 characters\. Use at least 10/)]
+					}
 				}
 			}
 		});

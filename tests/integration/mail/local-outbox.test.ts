@@ -4,7 +4,7 @@ import { simpleParser } from 'mailparser';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { getMailStatus, sendMail, startMail, stopMail } from '$lib/server/mail';
 import { countMessages, listMessages, readMessage } from '$lib/server/mail/outbox';
-import { passwordResetMail, renderMail, verificationMail } from '$lib/server/mail/templates';
+import { passwordResetMail, renderMail } from '$lib/server/mail/templates';
 import { useTempDataDir } from '../support/mail';
 
 let data: Awaited<ReturnType<typeof useTempDataDir>>;

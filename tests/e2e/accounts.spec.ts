@@ -255,6 +255,31 @@ test.describe('passwords', () => {
 	});
 });
 
+test('the forgot-password page and the reset mail give the link the lifetime the server keeps', async ({
+	page,
+	request
+}) => {
+	const learner = newAccount('learner');
+	await signUpViaApi(request, learner);
+	await page.goto('/forgot-password');
+	await page.getByLabel('E-mail address').fill(learner.email);
+	await page.getByRole('button', { name: 'Mail me a reset link' }).click();
+	await expect(page.getByRole('main')).toContainText('The link works once, for 60 minutes.');
+	const mail = await newestMailTo(learner.email);
+	expect(mail.subject).toBe('Choose a new Twelvefold password');
+	expect(mail.text).toContain('The link works once, for 60 minutes.');
+	// The address is not confirmed yet: the mail greets no one by the name typed at sign-up.
+	expect(mail.text).not.toContain(learner.name);
+});
+
+test('the sign-up page describes the drill as it works: keys picked round all twelve', async ({
+	page
+}) => {
+	await page.goto('/sign-up');
+	await expect(page.getByRole('main')).toContainText('in keys picked to cover all twelve');
+	await expect(page.getByRole('main')).not.toContainText('random keys');
+});
+
 test.describe('confirming an address', () => {
 	test('the mail and the page give the link the same lifetime, the one the server keeps', async ({
 		page

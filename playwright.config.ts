@@ -14,7 +14,8 @@ export default defineConfig({
 	retries: 0,
 	// `npm test` asks for a JSON report too, to total every suite in one closing line.
 	reporter: process.env.PLAYWRIGHT_JSON_OUTPUT_NAME ? [['list'], ['json']] : 'list',
-	timeout: 30_000,
+	// Generous for two loaded cores; a passing test takes seconds.
+	timeout: 60_000,
 	expect: { timeout: 7_000 },
 	use: {
 		baseURL: E2E_ORIGIN,

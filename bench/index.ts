@@ -1,8 +1,8 @@
 /**
  * `npm run bench`: the time to compute the full grid (12 keys × 9 chord qualities) of a four-bar
  * lick of 26 notes, against two yardsticks measured in the same run on the same machine:
- * - a bare loop of tonal `Note.transpose` over the same notes and intervals (96 × 26 calls);
- * - abcjs `strTranspose` for the same 96 variants, parsing once (it can only shift semitones:
+ * - a bare loop of tonal `Note.transpose` over the same notes and intervals (108 × 26 calls);
+ * - abcjs `strTranspose` for the same 108 variants, parsing once (it can only shift semitones:
  *   no re-mapping, no degrees, chord symbols from a fixed table).
  * Then the grid route, `POST /api/transpose/grid`, called in-process for the same 12 × 9 grid
  * (JSON in, validation, rate limit, bounded render, JSON out), against a bare `Response` of the
@@ -79,7 +79,7 @@ const intervals = KEYS.map((k) => Interval.distance(home, k));
 
 let sink = 0;
 
-// 1. Our grid: parse once, re-map over 8 qualities, transpose to 12 keys, spell, emit abc, label
+// 1. Our grid: parse once, re-map over 9 qualities, transpose to 12 keys, spell, emit abc, label
 // every note with its degree.
 const gridMs = measure(
 	'grid',
@@ -102,7 +102,7 @@ const renderMs = measure(
 	20
 );
 
-// 2. A bare tonal loop over the same notes and intervals: 96 variants × 26 notes.
+// 2. A bare tonal loop over the same notes and intervals: 108 variants × 26 notes.
 const tonalMs = measure(
 	'tonal',
 	() => {
@@ -115,7 +115,7 @@ const tonalMs = measure(
 	20
 );
 
-// 3. abcjs: parse once, then strTranspose for each of the 96 variants.
+// 3. abcjs: parse once, then strTranspose for each of the 108 variants.
 const visual = abcjs.parseOnly(LICK);
 const semitones = KEYS.map((k) => {
 	const s = Interval.semitones(Interval.distance(home, k)) ?? 0;
@@ -179,6 +179,7 @@ const lines = [
 	'',
 	`POST /api/transpose/grid, ${KEYS.length} keys × ${QUALITIES.length} qualities, in-process: ${routeMs.toFixed(3)} ms  (answer ${(answerBytes / 1024).toFixed(0)} KB)`,
 	`  floor, a bare Response of the same ${(answerBytes / 1024).toFixed(0)} KB:                 ${floorMs.toFixed(3)} ms`,
+	`  Ratio route / floor:     ${(routeMs / floorMs).toFixed(2)}×;  route / grid: ${(routeMs / gridMs).toFixed(2)}×`,
 	`  fastest batches: route ${fastest.get('route')?.toFixed(3)} ms, floor ${fastest.get('floor')?.toFixed(3)} ms`,
 	`Fastest batches: grid ${fastest.get('grid')?.toFixed(3)} ms, tonal ${fastest.get('tonal')?.toFixed(3)} ms, abcjs ${fastest.get('abcjs')?.toFixed(3)} ms (figures above are medians)`,
 	'',

@@ -5,7 +5,15 @@ import { seedDemo, DEMO_ACCOUNTS } from '../src/lib/server/demo/seed';
 
 const password = process.env.DEMO_PASSWORD || 'demo-password-12';
 await migrate(getDb());
-const report = await seedDemo(password);
+let report;
+try {
+	report = await seedDemo(password);
+} catch (error) {
+	// A weak DEMO_PASSWORD: say why in one line, not as a stack.
+	await closeDb();
+	console.error(error instanceof Error ? error.message : String(error));
+	process.exit(1);
+}
 await closeDb();
 console.log(
 	report.created.length

@@ -237,6 +237,14 @@ test.describe('screens at the edge', () => {
 		expect((await page.request.get('/api/me')).status()).toBe(401);
 	});
 
+	test('the try-it box answers an empty lick in words for a musician', async ({ page }) => {
+		const res = await page.request.post('/api/transpose', { data: { abc: '  ' } });
+		expect(res.status()).toBe(400);
+		const { error } = await res.json();
+		expect(error.message).toMatch(/^There is no lick to play yet\. Write it in abc notation/);
+		expect(error.message).not.toMatch(/string|non-empty|“abc”/);
+	});
+
 	test('the chosen role card is the filled one in the dark theme', async ({ page }) => {
 		await page.emulateMedia({ colorScheme: 'dark' });
 		await page.goto('/sign-up');

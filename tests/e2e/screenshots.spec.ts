@@ -56,15 +56,21 @@ for (const view of [
 			});
 		});
 
-		test('the empty teacher home', async ({ page, request }) => {
-			await signInAsNew(page, request, 'teacher');
-			await page.goto('/teach');
-			await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
-			await settle(page);
-			await page.screenshot({
-				path: `${dir}/teacher-home${view.suffix}.png`,
-				fullPage: view.width > 500
-			});
+		test("the demo teacher's and the demo admin's Today pages", async ({ page }) => {
+			for (const [who, heading] of [
+				['teacher', 'Hello, Rosa'],
+				['admin', 'The site today']
+			] as const) {
+				await page.context().clearCookies();
+				await signInAsDemo(page, `${who}@example.com`);
+				await page.goto('/home');
+				await expect(page.getByRole('heading', { level: 1 })).toHaveText(heading);
+				await settle(page);
+				await page.screenshot({
+					path: `${dir}/${who}-home${view.suffix}.png`,
+					fullPage: view.width > 500
+				});
+			}
 		});
 
 		test('the refusal a learner gets from a teacher page', async ({ page, request }) => {

@@ -3,7 +3,19 @@
  * eighths, a one-bar count-in and the chords voiced under the line. Pure (no audio, no clock) so
  * that the timing can be tested; `Player.svelte` hands the events to Tone.js.
  */
-import { Chord, Note } from 'tonal';
+import { Note } from 'tonal';
+import { chordToneIntervals, parseChordSymbol } from '../music/chord-symbol';
+
+/** Root, slash bass and chord tones of a symbol, through the engine's one chord-symbol reader. */
+function readChordSymbol(
+	symbol: string
+): { tonic: string; bass: string | null; intervals: readonly string[] } | null {
+	const parsed = parseChordSymbol(symbol);
+	if (!parsed) return null;
+	const intervals = chordToneIntervals(parsed.suffix);
+	if (intervals.length === 0) return null;
+	return { tonic: parsed.root, bass: parsed.bass, intervals };
+}
 
 /** The part of a sounding note the player needs (the transpose route's `notes[]`). */
 export interface PerformanceNote {
@@ -83,10 +95,9 @@ export function swingBeats(beats: number, ratio: number): number {
  * @example shellVoicing('Dm7') // [38, 53, 60]: D2, F3, C4
  */
 export function shellVoicing(symbol: string): number[] {
-	const [head, bassName] = symbol.split('/');
-	const chord = Chord.get(head.trim());
-	if (chord.empty || !chord.tonic) return [];
-	const bass = Note.midi(`${(bassName ?? chord.tonic).trim()}2`);
+	const chord = readChordSymbol(symbol);
+	if (!chord) return [];
+	const bass = Note.midi(`${chord.bass ?? chord.tonic}2`);
 	if (bass == null) return [];
 	const guide = (prefixes: string[]) => chord.intervals.find((i) => prefixes.includes(i[0]));
 	const third = guide(['3', '4']);
@@ -191,9 +202,8 @@ function loopOf(
  * slash bass, which the bass holds instead of walking to a fifth of some other note.
  */
 function fifthAbove(symbol: string): number {
-	const [head, bassName] = symbol.split('/');
-	if (bassName) return 0;
-	const chord = Chord.get(head.trim());
+	const chord = readChordSymbol(symbol);
+	if (!chord || chord.bass) return 0;
 	const fifth = chord.intervals.find((i) => i.startsWith('5'));
 	return { '5d': 6, '5A': 8 }[fifth ?? ''] ?? 7;
 }

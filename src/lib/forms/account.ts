@@ -16,11 +16,37 @@ export const MAX_EMAIL_LENGTH = 254;
 export const MAX_NAME_LENGTH = 100;
 export const MIN_PASSWORD_LENGTH = 10;
 export const MAX_PASSWORD_LENGTH = 200;
+/**
+ * How long a mailed link works: what the server stores as the token's expiry, and what the mails
+ * and pages say.
+ */
+export const LINK_LIFETIME_MS = {
+	verify: 24 * 60 * 60 * 1000,
+	reset: 60 * 60 * 1000
+} as const;
+export const VERIFY_LINK_HOURS = LINK_LIFETIME_MS.verify / 3_600_000;
+export const RESET_LINK_MINUTES = LINK_LIFETIME_MS.reset / 60_000;
+
 /** Longer than this, a typed password is refused before it costs an argon2 hash. */
 export const MAX_TYPED_PASSWORD_LENGTH = 1000;
 
-/** What the password fields of a new password say under themselves. */
-export const PASSWORD_HINT = `At least ${MIN_PASSWORD_LENGTH} characters, mixing two kinds: letters, digits or symbols.`;
+/**
+ * The password rule in one sentence: the hint under every new-password field, and the second
+ * half of every refusal, whose first half says what was wrong with the password typed. The
+ * length is checked here; "hard to guess" by the server (`$lib/server/auth/password-strength`),
+ * which holds the dictionaries the browser should not download.
+ */
+export const PASSWORD_RULE = `Use at least ${MIN_PASSWORD_LENGTH} characters that are hard to guess: not a common password or keyboard pattern, not your name or e-mail address. A few unrelated words work well.`;
+/** The hint under new-password fields: the rule itself. */
+export const PASSWORD_HINT = PASSWORD_RULE;
+
+/**
+ * A refusal of a new password: why, then the rule.
+ * @example passwordRefusal('Too short: 7 characters.') // → 'Too short: 7 characters. Use at least 10 characters that …'
+ */
+export function passwordRefusal(why: string): string {
+	return `${why} ${PASSWORD_RULE}`;
+}
 
 // Deliberately loose: one @, something on each side, a dot in the domain, no spaces. The link we
 // mail is the real check.
@@ -57,27 +83,26 @@ export function normalizeName(value: unknown): string | null {
 export type PasswordCheck = { ok: true } | { ok: false; message: string };
 
 /**
- * A plain rule a person can follow: 10 to 200 characters, not made of only one kind of character
- * (only letters, only digits…), and not the same character over and over.
+ * The part of the rule that needs no dictionary: 10 to 200 characters. Whether the password is
+ * hard to guess is the server's check (`checkNewPassword`), run after this one.
  *
- * @example checkPasswordStrength('slide-up-a-fourth') // → { ok: true }
+ * @example checkPasswordLength('slide-up-a-fourth') // → { ok: true }
  */
-export function checkPasswordStrength(password: string): PasswordCheck {
+export function checkPasswordLength(password: string): PasswordCheck {
 	if (password.length < MIN_PASSWORD_LENGTH) {
-		return { ok: false, message: `Use at least ${MIN_PASSWORD_LENGTH} characters.` };
-	}
-	if (password.length > MAX_PASSWORD_LENGTH) {
-		return { ok: false, message: `Use at most ${MAX_PASSWORD_LENGTH} characters.` };
-	}
-	const classes = [/[a-z]/, /[A-Z]/, /[0-9]/, /[^a-zA-Z0-9]/].filter((re) => re.test(password));
-	if (classes.length < 2) {
+		const count = [...password].length;
 		return {
 			ok: false,
-			message: 'Mix at least two kinds of characters: lower case, upper case, digits or symbols.'
+			message: passwordRefusal(`Too short: ${count} ${count === 1 ? 'character' : 'characters'}.`)
 		};
 	}
-	if (new Set(password).size < 4) {
-		return { ok: false, message: 'Use more than three different characters.' };
+	if (password.length > MAX_PASSWORD_LENGTH) {
+		return {
+			ok: false,
+			message: passwordRefusal(
+				`Too long: we keep passwords of up to ${MAX_PASSWORD_LENGTH} characters.`
+			)
+		};
 	}
 	return { ok: true };
 }
@@ -92,7 +117,7 @@ const newPasswordField = (missing: string) =>
 	text(missing)
 		.min(1, missing)
 		.superRefine((password, ctx) => {
-			const check = checkPasswordStrength(password);
+			const check = checkPasswordLength(password);
 			if (!check.ok) ctx.addIssue({ code: 'custom', message: check.message });
 		});
 

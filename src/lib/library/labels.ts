@@ -2,30 +2,12 @@
  * Screen words for the library's stored values: chord qualities, visibility and feel. One place,
  * so the table, the editor, the print sheet and the share page say the same thing.
  */
-export const QUALITY_LABELS: Record<string, string> = {
-	'7': 'Dominant (7)',
-	m7: 'Minor 7th (m7)',
-	maj7: 'Major 7th (maj7)',
-	m7b5: 'Half-diminished (m7♭5)',
-	'7alt': 'Altered (7alt)',
-	dim7: 'Diminished (dim7)',
-	'6': 'Major 6th (6)',
-	m6: 'Minor 6th (m6)',
-	'7sus4': 'Suspended (7sus4)'
-};
+import { QUALITY_LABELS as ENGINE_QUALITY_LABELS, QUALITY_SYMBOLS } from '../music/qualities-data';
+/** The engine's one list of qualities, in the words a picker shows. */
+export const QUALITY_LABELS: Readonly<Record<string, string>> = ENGINE_QUALITY_LABELS;
 
 /** Short form for a table cell. */
-export const QUALITY_SHORT: Record<string, string> = {
-	'7': '7',
-	m7: 'm7',
-	maj7: 'maj7',
-	m7b5: 'm7♭5',
-	'7alt': '7alt',
-	dim7: 'dim7',
-	'6': '6',
-	m6: 'm6',
-	'7sus4': '7sus4'
-};
+export const QUALITY_SHORT: Readonly<Record<string, string>> = QUALITY_SYMBOLS;
 
 export const VISIBILITY_LABELS: Record<string, string> = {
 	private: 'Only me',

@@ -13,7 +13,7 @@
  * Device indices are the notes' own `index` values; `end` is inclusive.
  */
 import { degreeOf, readNote, type Degree, type DegreeLabel } from './degrees';
-import { LETTER_SEMITONES, LETTERS, type SpelledNote } from './pitch';
+import { formatNoteName, LETTER_SEMITONES } from './pitch';
 import type { ChordContext, PitchName, SoundingNote } from './types';
 
 export type DeviceKind = 'arpeggio' | 'chromatic-fill' | 'enclosure' | 'leap';
@@ -85,9 +85,7 @@ const SOUNDS: Record<string, Record<string, string>> = {
 	m7b5: { 'b3 b5 b7 9': 'm9b5', 'b3 b5 b7': 'm7b5' }
 };
 
-const nameOf = (n: SpelledNote): string =>
-	LETTERS[n.letter] + (n.alt > 0 ? '#'.repeat(n.alt) : 'b'.repeat(-n.alt));
-const letterName = (pitch: PitchName): string => nameOf(readNote(pitch));
+const letterName = (pitch: PitchName): string => formatNoteName(readNote(pitch));
 const sameChord = (a: ChordContext | null, b: ChordContext | null): boolean =>
 	a === b || (!!a && !!b && a.symbol === b.symbol);
 const onBeat = (start: number): boolean => Math.abs(start * 4 - Math.round(start * 4)) < 1e-9;
@@ -268,34 +266,102 @@ function chromaticFills(notes: readonly SoundingNote[], degrees: (Degree | null)
 	return out;
 }
 
-function enclosures(notes: readonly SoundingNote[], degrees: (Degree | null)[]): Device[] {
+/** Whether a note is a target an enclosure can aim at: a chord tone or an available tension. */
+const aimable = (d: Degree | null): boolean =>
+	!d || d.role === 'chord-tone' || d.role === 'tension';
+
+function enclosures(
+	notes: readonly SoundingNote[],
+	degrees: (Degree | null)[],
+	arpeggios: readonly Device[]
+): Device[] {
 	const out: Device[] = [];
+	// Two notes inside one arpeggio are its chord, not an approach to what follows (C E G B | A
+	// over a change spells Cmaj7 and moves on; it does not enclose the A).
+	const inArpeggio = (i: number): boolean =>
+		arpeggios.some((a) => a.start <= notes[i].index && notes[i + 1].index <= a.end);
 	for (let i = 0; i + 2 < notes.length; i++) {
-		const t = notes[i + 2];
-		const first = notes[i].midi - t.midi;
-		const second = notes[i + 1].midi - t.midi;
-		if (first === 0 || second === 0 || Math.sign(first) === Math.sign(second)) continue;
-		if (Math.abs(first) > 2 || Math.abs(second) > 2) continue;
-		const g = degrees[i + 2];
-		if (g && g.role !== 'chord-tone' && g.role !== 'tension') continue;
-		const how = (x: number) => (Math.abs(x) === 1 ? 'a half step' : 'a whole step');
-		const side = (x: number) => (x > 0 ? 'above' : 'below');
-		// Letter names read better in a sentence than octave numbers (Bb, not Bb5).
-		const name = (n: SoundingNote) => n.pitch.replace(/-?\d+$/, '');
-		const chromatic =
-			Math.abs(first) === 1 && Math.abs(second) === 1 ? 'A chromatic enclosure' : 'An enclosure';
-		const targetName = g ? `the ${spoken(g.label)} (${name(t)})` : name(t);
-		out.push({
-			kind: 'enclosure',
-			start: notes[i].index,
-			end: t.index,
-			degrees: labelsOf(degrees, i, i + 2),
-			label:
-				`${chromatic} of ${targetName}${t.chord ? ` over ${t.chord.symbol}` : ''}: ${name(notes[i])} ` +
-				`${how(first)} ${side(first)}, ${name(notes[i + 1])} ${how(second)} ${side(second)}, then the target.`
-		});
+		if (inArpeggio(i)) continue;
+		const found = enclosureFrom(notes, degrees, i);
+		if (found) {
+			out.push(found);
+			i = notes.findIndex((n) => n.index === found.end) - 1;
+		}
 	}
 	return out;
+}
+
+/**
+ * An enclosure starting at note i: one note on each side of a target, each within a whole step,
+ * then any chromatic passing tones from the second note toward the target, then the target
+ * (`"C7"F D ^D E`: F above, D below, D♯ passing, the 3). A tension that moves on by the same half
+ * step to a chord tone is itself a passing tone, not the target (the D♯ there is no ♯9).
+ */
+function enclosureFrom(
+	notes: readonly SoundingNote[],
+	degrees: (Degree | null)[],
+	i: number
+): Device | null {
+	for (let t = i + 2; t < notes.length && t <= i + 4; t++) {
+		const target = notes[t].midi;
+		const first = notes[i].midi - target;
+		const second = notes[i + 1].midi - target;
+		if (first === 0 || second === 0 || Math.sign(first) === Math.sign(second)) return null;
+		if (Math.abs(first) > 2 || Math.abs(second) > 2) return null;
+		// Notes between the second and the target: half steps toward the target, on its side.
+		let passing = true;
+		for (let k = i + 2; k < t && passing; k++) {
+			const step = notes[k].midi - notes[k - 1].midi;
+			passing = Math.abs(step) === 1 && Math.sign(step) === -Math.sign(second);
+		}
+		if (!passing) return null;
+		const g = degrees[t];
+		if (t > i + 2 && Math.sign(target - notes[t - 1].midi) !== -Math.sign(second)) return null;
+		const next = t + 1 < notes.length ? notes[t + 1].midi - target : 0;
+		const movesOn =
+			t + 1 < notes.length &&
+			Math.abs(next) === 1 &&
+			Math.sign(next) === Math.sign(target - notes[t - 1].midi) &&
+			Math.abs(target - notes[t - 1].midi) === 1 &&
+			degrees[t + 1]?.role === 'chord-tone' &&
+			g?.role !== 'chord-tone';
+		if (movesOn) continue;
+		if (!aimable(g)) return null;
+		return describeEnclosure(notes, degrees, i, t);
+	}
+	return null;
+}
+
+function describeEnclosure(
+	notes: readonly SoundingNote[],
+	degrees: (Degree | null)[],
+	i: number,
+	t: number
+): Device {
+	const target = notes[t];
+	const first = notes[i].midi - target.midi;
+	const second = notes[i + 1].midi - target.midi;
+	const g = degrees[t];
+	const how = (x: number) => (Math.abs(x) === 1 ? 'a half step' : 'a whole step');
+	const side = (x: number) => (x > 0 ? 'above' : 'below');
+	// Letter names read better in a sentence than octave numbers (Bb, not Bb5).
+	const name = (n: SoundingNote) => n.pitch.replace(/-?\d+$/, '');
+	const chromatic =
+		Math.abs(first) === 1 && Math.abs(second) === 1 ? 'A chromatic enclosure' : 'An enclosure';
+	const targetName = g ? `the ${spoken(g.label)} (${name(target)})` : name(target);
+	const passing = notes.slice(i + 2, t).map(name);
+	const through = passing.length
+		? `, ${list(passing)} ${passing.length === 1 ? 'a passing tone' : 'passing tones'}`
+		: '';
+	return {
+		kind: 'enclosure',
+		start: notes[i].index,
+		end: target.index,
+		degrees: labelsOf(degrees, i, t),
+		label:
+			`${chromatic} of ${targetName}${target.chord ? ` over ${target.chord.symbol}` : ''}: ${name(notes[i])} ` +
+			`${how(first)} ${side(first)}, ${name(notes[i + 1])} ${how(second)} ${side(second)}${through}, then the target.`
+	};
 }
 
 /** A degree as a sentence says it: the root by name, the others by number (`the 9`). */
@@ -327,10 +393,11 @@ function leaps(notes: readonly SoundingNote[]): Device[] {
  */
 export function analyseNotes(notes: readonly SoundingNote[]): Analysis {
 	const degrees = notes.map((n) => (n.chord ? degreeOf(n.pitch, n.chord) : null));
+	const found = arpeggios(notes, degrees);
 	const devices = [
-		...arpeggios(notes, degrees),
+		...found,
 		...chromaticFills(notes, degrees),
-		...enclosures(notes, degrees),
+		...enclosures(notes, degrees, found),
 		...leaps(notes)
 	].sort((x, y) => x.start - y.start || x.end - y.end);
 	return { degrees, devices };

@@ -9,8 +9,7 @@
  * A chord tone or tension is written on the letter its interval gives above the root (the third
  * two letters up, and so on; common practice), whatever the key signature.
  */
-import { ChordType } from 'tonal';
-import { normaliseChordSuffix, parseChordSymbol } from './chord-symbol';
+import { chordToneIntervals, isPlainChordSuffix, parseChordSymbol } from './chord-symbol';
 import { mod12 } from './pitch';
 import { parseInterval, qualityTable, type DegreeLabel, type DegreeRole } from './qualities';
 import type { Steps } from './pitch';
@@ -49,20 +48,6 @@ export function intervalLabel(iv: Steps, sixth: boolean): DegreeLabel {
 	}
 }
 
-/** Suffixes that say no more than their table quality: the table alone describes them. */
-const PLAIN: Record<string, true> = {
-	'7': true,
-	m7: true,
-	maj7: true,
-	m7b5: true,
-	o7: true,
-	// tonal's 7alt is 1 3 #5 b7 #9 only; the altered scale of the table says more.
-	'7alt': true,
-	'6': true,
-	m6: true,
-	'7sus4': true
-};
-
 const shapes = new Map<string, ChordShape>();
 
 /**
@@ -83,12 +68,11 @@ function buildShape(suffix: string, quality: QualityId | null): ChordShape {
 	const spelling: (Steps | null)[] = Array(12).fill(null);
 	const labels: (DegreeLabel | null)[] = Array(12).fill(null);
 	const roles: (DegreeRole | null)[] = Array(12).fill(null);
-	const normal = normaliseChordSuffix(suffix);
-	if (!PLAIN[normal]) {
+	if (!isPlainChordSuffix(suffix)) {
 		// tonal's dictionary knows `7#9`, `mMaj7`, `13`, `7b13`…; an unknown type adds nothing.
-		const own = ChordType.get(normal === '' ? 'M' : normal.replace(/^mmaj/, 'mMaj'));
-		const sixth = own.intervals.some((i) => i === '6M' || i === '6m');
-		for (const name of own.intervals) {
+		const own = chordToneIntervals(suffix);
+		const sixth = own.some((i) => i === '6M' || i === '6m');
+		for (const name of own) {
 			const iv = parseInterval(name);
 			const s = mod12(iv.semitones);
 			spelling[s] = iv;

@@ -10,6 +10,9 @@
  * - `sus`, `sus4`, `7sus4`, `9sus`, `13sus`, and `11` (no third, as tonal 6.5.1 reads it) → 7sus4;
  * - minor-major, augmented triads, `sus2`, power chords and anything else → null.
  */
+import { ChordType } from 'tonal';
+import { LETTERS, type SpelledNote } from './pitch';
+import { QUALITY_ROWS } from './qualities-data';
 import type { ChordContext, NoteName, QualityId } from './types';
 
 /** A parsed chord symbol: the chord in force plus its type text as written. */
@@ -106,6 +109,82 @@ export function parseChordSymbol(text: string): ParsedChordSymbol | null {
 		bass,
 		suffix
 	};
+}
+
+/** Suffixes that say no more than their table quality: the table's chord tones describe them. */
+const PLAIN: Readonly<Record<string, QualityId>> = {
+	'7': '7',
+	m7: 'm7',
+	maj7: 'maj7',
+	m7b5: 'm7b5',
+	o7: 'dim7',
+	// tonal's 7alt is 1 3 #5 b7 #9 only; the altered scale of the table says more.
+	'7alt': '7alt',
+	'6': '6',
+	m6: 'm6',
+	'7sus4': '7sus4'
+};
+
+/**
+ * The chord tones a chord type names, as intervals above its root: the quality table's for the
+ * nine table qualities, else tonal 6.5.1's chord dictionary (`ChordType.get`), which knows `7#9`,
+ * `mMaj7`, `13`, `7b13`…; empty for a type neither knows.
+ * @example chordToneIntervals('mMaj7') // ['1P', '3m', '5P', '7M']
+ */
+export function chordToneIntervals(suffix: string): readonly string[] {
+	const normal = normaliseChordSuffix(suffix);
+	const plain = PLAIN[normal];
+	if (plain) return TABLE_TONES.get(plain) ?? [];
+	return ChordType.get(normal === '' ? 'M' : normal.replace(/^mmaj/, 'mMaj')).intervals;
+}
+
+/** Whether a chord type is one of the table's own (its chord tones say nothing more). */
+export function isPlainChordSuffix(suffix: string): boolean {
+	return PLAIN[normaliseChordSuffix(suffix)] !== undefined;
+}
+
+const TABLE_TONES = new Map<QualityId, readonly string[]>(
+	QUALITY_ROWS.map((r) => [r.id, r.chordTones])
+);
+
+const ROOT_RE = /(^|[\s/(,|])([A-G])(##|bb|#|b|♯|♭)?/g;
+const ALT_TEXT: Record<string, number> = { '': 0, '#': 1, '##': 2, b: -1, bb: -2, '♯': 1, '♭': -1 };
+
+/** A chord symbol cut at its roots: text pieces around each root or bass note. */
+export interface ChordTemplate {
+	/** One more piece than roots: pieces[0] root[0] pieces[1] root[1] … */
+	pieces: string[];
+	roots: SpelledNote[];
+	/** Index in `roots` of a bass note after a slash at the end, or -1. */
+	bass: number;
+}
+
+const templates = new Map<string, ChordTemplate>();
+
+/**
+ * Cut a chord symbol at its roots once; transposing it is then string joins (no regex per variant).
+ * @example chordTemplate('Bb7/D') // { pieces: ['', '7/', ''], roots: [Bb, D], bass: 1 }
+ */
+export function chordTemplate(symbol: string): ChordTemplate {
+	let t = templates.get(symbol);
+	if (t) return t;
+	const pieces: string[] = [];
+	const roots: SpelledNote[] = [];
+	let last = 0;
+	let bass = -1;
+	for (const m of symbol.matchAll(ROOT_RE)) {
+		const at = (m.index ?? 0) + m[1].length;
+		pieces.push(symbol.slice(last, at));
+		roots.push({ letter: LETTERS.indexOf(m[2]), alt: ALT_TEXT[m[3] ?? ''] });
+		last = at + m[2].length + (m[3]?.length ?? 0);
+		if (m[1] === '/' && /^\s*\)?\s*$/.test(symbol.slice(last))) bass = roots.length - 1;
+	}
+	pieces.push(symbol.slice(last));
+	t = { pieces, roots, bass };
+	// Licks hold a handful of symbols; a long-running server must not keep every one it has seen.
+	if (templates.size > 2000) templates.clear();
+	templates.set(symbol, t);
+	return t;
 }
 
 /**

@@ -11,12 +11,14 @@
  * - A chord whose quality is unknown still gets names (as over a dominant) with role 'unknown'.
  */
 import {
+	chromaOf,
 	mod12,
 	MusicInvariantError,
 	parseNoteName,
 	parsePitchName,
 	type SpelledNote
 } from './pitch';
+import { chordShape, type ChordShape } from './chord-shape';
 import { BASE_LABELS, LABEL_NUMBER } from './qualities-data';
 import { qualityTable, type DegreeLabel, type DegreeRole } from './qualities';
 import {
@@ -74,15 +76,13 @@ export function readNote(name: NoteName | PitchName): SpelledNote {
 	return n;
 }
 
-const LETTER_SEMIS = [0, 2, 4, 5, 7, 9, 11];
-
 /**
  * Pitch class (0..11) of a note or pitch name.
  * @example chromaOfName('Bb3') // 10
  */
 export function chromaOfName(name: NoteName | PitchName): number {
 	const n = readNote(name);
-	return mod12(LETTER_SEMIS[n.letter] + n.alt);
+	return mod12(chromaOf(n));
 }
 
 /**
@@ -95,10 +95,56 @@ export function degreeAt(semitones: number, quality: QualityId | null): Degree {
 	return row[mod12(semitones)];
 }
 
+/** Degrees read from a chord symbol's own tones, by shape (a lick holds a handful of shapes). */
+const shapeDegrees = new WeakMap<ChordShape, Map<QualityId | null, readonly Degree[]>>();
+
 /**
- * Degree of a pitch over a chord, by semitones in context.
+ * The twelve degrees over a chord symbol, by semitones above its root: from the symbol's own
+ * chord tones first (over CmMaj7, 3 semitones is the b3; over C7#9, 7 is the 5, a chord tone),
+ * then from the quality it reduces to. Built once per shape and quality.
+ * @example degreesOfShape(chordShape(chordOf('CmMaj7')), null)[3].label // 'b3'
+ */
+export function degreesOfShape(shape: ChordShape, quality: QualityId | null): readonly Degree[] {
+	let byQuality = shapeDegrees.get(shape);
+	if (!byQuality) {
+		byQuality = new Map();
+		shapeDegrees.set(shape, byQuality);
+	}
+	let row = byQuality.get(quality);
+	if (!row) {
+		row = Array.from({ length: 12 }, (_, s) => {
+			const label = shape.labels[s];
+			const role = shape.roles[s];
+			return label && role
+				? Object.freeze({ label, semitones: s, number: LABEL_NUMBER[label], role })
+				: degreeAt(s, quality);
+		});
+		byQuality.set(quality, row);
+	}
+	return row;
+}
+
+/**
+ * The degree at some semitones above the root of a chord symbol (see `degreesOfShape`).
+ * @example degreeInShape(chordShape(chordOf('C7#9')), 7, '7alt').label // '5'
+ */
+export function degreeInShape(
+	shape: ChordShape,
+	semitones: number,
+	quality: QualityId | null
+): Degree {
+	return degreesOfShape(shape, quality)[mod12(semitones)];
+}
+
+/**
+ * Degree of a pitch over a chord, by semitones in context, read from the chord symbol's own
+ * tones and its quality's scale.
  * @example degreeOf('G4', { symbol: 'E7', root: 'E', quality: '7', bass: null }) // #9, tension
  */
 export function degreeOf(pitch: NoteName | PitchName, chord: ChordContext): Degree {
-	return degreeAt(chromaOfName(pitch) - chromaOfName(chord.root), chord.quality);
+	return degreeInShape(
+		chordShape(chord),
+		chromaOfName(pitch) - chromaOfName(chord.root),
+		chord.quality
+	);
 }

@@ -8,7 +8,11 @@ import {
 	type InstrumentId,
 	type InstrumentRow
 } from './instruments-data';
-import { formatPitch, MusicInvariantError, parsePitchName, transposePitch } from './pitch';
+import { MAJOR_KEY_SPELLINGS } from './key-data';
+import { formatPitch, mod12, MusicInvariantError, parsePitchName, transposePitch } from './pitch';
+
+/** Note names for messages: the jazz key spellings, with the sharp side's C♯ and F♯ for pitches. */
+const MIDI_NAMES = MAJOR_KEY_SPELLINGS.map((k, pc) => (pc === 1 ? 'C#' : pc === 6 ? 'F#' : k));
 import { parseInterval } from './qualities';
 import type { MusicWarning, PitchName } from './types';
 
@@ -66,8 +70,7 @@ export function writtenPitch(concert: PitchName, id: InstrumentId, octaveShift =
 
 /** Scientific name of a MIDI number in the usual jazz spelling, for messages. */
 function midiName(midi: number): string {
-	const names = ['C', 'C#', 'D', 'Eb', 'E', 'F', 'F#', 'G', 'Ab', 'A', 'Bb', 'B'];
-	return names[((midi % 12) + 12) % 12] + (Math.floor(midi / 12) - 1);
+	return MIDI_NAMES[mod12(midi)] + (Math.floor(midi / 12) - 1);
 }
 
 export interface RangeFit {

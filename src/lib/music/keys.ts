@@ -12,7 +12,7 @@ import {
 	SHARP_ORDER,
 	type Mode
 } from './key-data';
-import { chromaOf, formatNoteName, LETTERS, parseNoteName, type SpelledNote } from './pitch';
+import { chromaOf, formatNoteName, LETTERS, mod12, parseNoteName, type SpelledNote } from './pitch';
 import type { KeyName } from './types';
 
 export type { Mode } from './key-data';
@@ -257,7 +257,7 @@ function tonicSpellings(pc: number): SpelledNote[] {
  * @example jazzTonic(6, 'major', 'F#') // { letter: 3, alt: 1 }
  */
 export function jazzTonic(pc: number, mode: Mode, tritone: TritoneSpelling = 'Gb'): SpelledNote {
-	const p = ((pc % 12) + 12) % 12;
+	const p = mod12(pc);
 	if (mode === 'major') {
 		return parseNoteName(p === 6 ? tritone : MAJOR_KEY_SPELLINGS[p]) as SpelledNote;
 	}

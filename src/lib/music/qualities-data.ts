@@ -91,6 +91,11 @@ export interface QualityRow {
 	spelling?: Readonly<Partial<Record<number, string>>>;
 	/** Candidates for a degree number the scale lacks or holds twice; more than one is ambiguous. */
 	choices?: Readonly<Partial<Record<number, readonly string[]>>>;
+	/**
+	 * A chord tone of this quality standing in for a degree number it lacks, when a line is
+	 * re-mapped onto it: the 6 for the 7 of the sixth chords, the 4 for the 3 of a sus chord.
+	 */
+	standIn?: Readonly<Partial<Record<number, string>>>;
 	/** Source labels whose move onto this quality is a judgement call, and why. */
 	ambiguous?: Readonly<Partial<Record<DegreeLabel, string>>>;
 }
@@ -132,7 +137,8 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 		ambiguous: { '#11': 'it could also stay a half step lower as the b5, a blue note' }
 	},
 	{
-		// Levine: Ionian with 11 avoided, or Lydian with #11; 9 and 13 available.
+		// Levine: Ionian with 11 avoided, or Lydian with #11; 9 and 13 available. A line re-mapped
+		// onto major takes the Lydian fourth: the avoid 11 of the source becomes the #11.
 		id: 'maj7',
 		name: 'major seventh',
 		chordTones: ['1P', '3M', '5P', '7M'],
@@ -143,6 +149,7 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 		},
 		tensions: ['2M', '6M', '4A'],
 		avoid: ['4P'],
+		choices: { 4: ['4A'] },
 		ambiguous: { '#9': 'it could also be read as a blue note leading to the 3' }
 	},
 	{
@@ -205,6 +212,8 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 		tensions: ['2M', '4A', '7M'],
 		avoid: ['4P'],
 		labels: { 9: '6' },
+		// A dominant or major-seventh arpeggio over a sixth chord plays the sixth (C E G A).
+		standIn: { 7: '6M' },
 		ambiguous: { '#9': 'it could also be read as a blue note leading to the 3' }
 	},
 	{
@@ -221,6 +230,7 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 		avoid: [],
 		labels: { ...MINOR_LABELS, 9: '6' },
 		spelling: { 6: '5d' },
+		standIn: { 7: '6M' },
 		ambiguous: { '#11': 'it could also stay a half step lower as the b5, a blue note' }
 	},
 	{
@@ -234,9 +244,37 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 			intervals: ['1P', '2M', '3M', '4P', '5P', '6M', '7m']
 		},
 		tensions: ['2M', '6M'],
-		avoid: ['3M']
+		avoid: ['3M'],
+		// The fourth replaces the third (C F G Bb).
+		standIn: { 3: '4P' }
 	}
 ];
+
+/** Each quality in a sentence, lower case: “over a half-diminished chord”. */
+export const QUALITY_WORDS: Readonly<Record<QualityId, string>> = {
+	'7': 'dominant 7th',
+	m7: 'minor 7th',
+	maj7: 'major 7th',
+	m7b5: 'half-diminished',
+	'7alt': 'altered',
+	dim7: 'diminished 7th',
+	'6': 'major 6th',
+	m6: 'minor 6th',
+	'7sus4': 'suspended'
+};
+
+/** Each quality's symbol with real signs, for a table cell. */
+export const QUALITY_SYMBOLS: Readonly<Record<QualityId, string>> = {
+	'7': '7',
+	m7: 'm7',
+	maj7: 'maj7',
+	m7b5: 'm7♭5',
+	'7alt': '7alt',
+	dim7: 'dim7',
+	'6': '6',
+	m6: 'm6',
+	'7sus4': '7sus4'
+};
 
 /** How a picker names each quality: the word a teacher says, then the symbol. */
 export const QUALITY_LABELS: Readonly<Record<QualityId, string>> = {

@@ -5,7 +5,7 @@
  */
 import {
 	LETTER_SEMITONES,
-	LETTERS,
+	formatNoteName,
 	mod12,
 	MusicInvariantError,
 	parseNoteName,
@@ -40,6 +40,8 @@ export interface QualityTable {
 	chordToneByNumber: readonly (number | undefined)[];
 	/** Candidate semitones for each degree number (1..7) in the parent scale, first preferred. */
 	scaleByNumber: readonly (readonly number[])[];
+	/** Semitones of the chord tone standing in for a degree number the chord lacks (row.standIn). */
+	standInByNumber: readonly (number | undefined)[];
 }
 
 const INTERVAL = /^(-?)(\d+)(P|M|m|A+|d+)$/;
@@ -143,7 +145,20 @@ function buildTable(row: QualityRow): QualityTable {
 	}
 	for (const [n, names] of Object.entries(row.choices ?? {}))
 		scaleByNumber[Number(n)] = (names ?? []).map((name) => mod12(parseInterval(name).semitones));
-	return { row, labels, roles, inScale, inParentScale, spelling, chordToneByNumber, scaleByNumber };
+	const standInByNumber: (number | undefined)[] = Array(8).fill(undefined);
+	for (const [n, name] of Object.entries(row.standIn ?? {}))
+		if (name) standInByNumber[Number(n)] = mod12(parseInterval(name).semitones);
+	return {
+		row,
+		labels,
+		roles,
+		inScale,
+		inParentScale,
+		spelling,
+		chordToneByNumber,
+		scaleByNumber,
+		standInByNumber
+	};
 }
 
 const TABLES = new Map<QualityId, QualityTable>(QUALITY_ROWS.map((r) => [r.id, buildTable(r)]));
@@ -176,7 +191,7 @@ function spellAbove(root: NoteName, intervals: readonly string[]): NoteName[] {
 		let alt = r.alt + iv.semitones - natural;
 		while (alt > 6) alt -= 12;
 		while (alt < -6) alt += 12;
-		return LETTERS[letter] + (alt > 0 ? '#'.repeat(alt) : 'b'.repeat(-alt));
+		return formatNoteName({ letter, alt });
 	});
 }
 

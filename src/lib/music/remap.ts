@@ -28,8 +28,9 @@
  * are not the chord being re-mapped); notes before any chord use `options.root`.
  */
 import {
+	formatNoteName,
+	formatPitch,
 	LETTER_SEMITONES,
-	LETTERS,
 	mod12,
 	MusicInvariantError,
 	type SpelledNote,
@@ -74,6 +75,10 @@ interface Move {
 	reason: string | null;
 	/** Where the note goes instead when the first choice collides with a neighbour. */
 	alternative: number | null;
+	/** A chord tone that lands on the target's chord tone of its own number: it never moves aside. */
+	anchored: boolean;
+	/** A chord tone that lands on the chord tone standing in for its number (the 3 on the 4 of a sus). */
+	standIn: boolean;
 }
 
 function byNumber(T: QualityTable, s: number, number: number): number[] {
@@ -91,19 +96,28 @@ function planMove(F: QualityTable, T: QualityTable, s: number): Move {
 	const number = LABEL_NUMBER[label];
 	const reason = T.row.ambiguous?.[label] ?? null;
 	const scale = byNumber(T, s, number);
-	const kept = (t: number): Move => ({
+	const source = F.roles[s] === 'chord-tone';
+	const kept = (t: number, standIn = false): Move => ({
 		candidates: [t],
 		reason: null,
-		alternative: scale[0] !== t ? scale[0] : null
+		alternative: scale[0] !== t ? scale[0] : null,
+		anchored: source && T.roles[t] === 'chord-tone' && !standIn,
+		standIn
 	});
 	if (T.roles[s] === 'chord-tone') return kept(s);
 	const tone = T.chordToneByNumber[number];
-	if (F.roles[s] === 'chord-tone' && tone !== undefined) return kept(tone);
+	if (source && tone !== undefined) return kept(tone);
+	// A chord tone the target lacks lands on the one standing in for it (b7 → 6, 3 → 4); when
+	// that meets a neighbour it keeps its scale degree instead (G A Bb C over C6 is G A B C).
+	const standIn = T.standInByNumber[number];
+	if (source && standIn !== undefined) return kept(standIn, true);
 	if (T.roles[s] === 'tension') return kept(s);
 	return {
 		candidates: scale,
 		reason: scale.length > 1 ? null : reason,
-		alternative: scale.length > 1 ? scale[1] : null
+		alternative: scale.length > 1 ? scale[1] : null,
+		anchored: false,
+		standIn: false
 	};
 }
 
@@ -123,17 +137,6 @@ for (const from of QUALITY_IDS)
 const LS: readonly number[] = [...LETTER_SEMITONES];
 const DESC: readonly Steps[] = [...DESCENDING_SPELLING];
 const ASC: readonly Steps[] = [...ASCENDING_SPELLING];
-const ACCIDENTALS = ['bb', 'b', '', '#', '##'];
-/** NAMES[letter][alt + 2]: 'Cbb' … 'B##'. */
-const NAMES: readonly (readonly string[])[] = [...LETTERS].map((l) =>
-	ACCIDENTALS.map((a) => l + a)
-);
-
-/** PITCH_NAMES[(letter * 5 + alt + 2) * 12 + octave + 1] for octaves -1..10: no string building. */
-const PITCH_NAMES: readonly string[] = NAMES.flatMap((byAlt) =>
-	byAlt.flatMap((name) => Array.from({ length: 12 }, (_, o) => name + (o - 1)))
-);
-
 /** Spell a pitch at `midi` as an interval above a root, without double accidentals. */
 function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
 	let letter = (root.letter + iv.steps) % 7;
@@ -145,12 +148,11 @@ function spell(root: SpelledNote, iv: Steps, midi: number): PitchName {
 		alt = smallestMove(LS[letter], pc);
 	}
 	const octave = Math.floor((midi - LS[letter] - alt) / 12) - 1;
-	if (octave < -1 || octave > 10) return NAMES[letter][alt + 2] + octave;
-	return PITCH_NAMES[(letter * 5 + alt + 2) * 12 + octave + 1];
+	return formatPitch({ letter, alt, octave });
 }
 
 function symbolOf(root: SpelledNote, quality: QualityId): string {
-	return chordMark(NAMES[root.letter][root.alt + 2] + quality);
+	return chordMark(formatNoteName(root) + quality);
 }
 
 /** Marked names for warning templates: the source pitch of note i, its re-mapped pitch. */
@@ -191,43 +193,45 @@ interface Job {
 	warnings: MusicWarning[];
 }
 
-/**
- * One set of working arrays, reused by every call (re-mapping is synchronous and not re-entrant),
- * so that the grid of keys and qualities allocates little more than its results.
- */
-let shared: Job | null = null;
-function scratch(n: number): Job {
-	if (!shared || shared.semis.length < n) {
-		const size = Math.max(n, 64, shared ? shared.semis.length * 2 : 0);
-		shared = {
-			notes: [],
-			from: '7',
-			to: '7',
-			F: qualityTable('7'),
-			T: qualityTable('7'),
-			moves: [],
-			roots: new Array(size).fill(null),
-			semis: new Int8Array(size),
-			isTone: new Uint8Array(size),
-			midis: new Int16Array(size),
-			pitches: [],
-			done: new Uint8Array(size),
-			alternative: new Int8Array(size),
-			targets: new Int16Array(size),
-			ambiguous: null,
-			avoid: null,
-			warnings: []
-		};
-	}
-	shared.done.fill(0, 0, n);
-	shared.alternative.fill(-1, 0, n);
-	shared.targets.fill(-1, 0, n);
-	return shared;
+/** Fresh working arrays for one re-mapping (nothing is shared between calls). */
+function newJob(
+	notes: readonly SoundingNote[],
+	from: QualityId,
+	to: QualityId,
+	moves: readonly Move[]
+): Job {
+	const n = notes.length;
+	return {
+		notes,
+		from,
+		to,
+		F: qualityTable(from),
+		T: qualityTable(to),
+		moves,
+		roots: new Array(n).fill(null),
+		semis: new Int8Array(n),
+		isTone: new Uint8Array(n),
+		midis: new Int16Array(n),
+		pitches: new Array<PitchName>(n),
+		done: new Uint8Array(n),
+		alternative: new Int8Array(n).fill(-1),
+		targets: new Int16Array(n).fill(-1),
+		ambiguous: null,
+		avoid: null,
+		warnings: []
+	};
 }
 
 function place(job: Job, i: number, midi: number, iv: Steps): void {
 	job.midis[i] = midi;
-	job.pitches[i] = spell(job.roots[i]!, iv, midi);
+	const note = job.notes[i];
+	// A note that keeps its pitch and is no chord tone or tension of the target keeps the
+	// teacher's spelling (the blue E♭ over C7 stays E♭ over C6, not D♯).
+	const role = job.T.roles[job.semis[i]];
+	job.pitches[i] =
+		midi === note.midi && role !== 'chord-tone' && role !== 'tension'
+			? note.pitch
+			: spell(job.roots[i]!, iv, midi);
 	job.done[i] = 1;
 }
 
@@ -250,8 +254,9 @@ function byDegree(job: Job, i: number): void {
 	}
 	place(job, i, notes[i].midi + smallestMove(s, t), T.spelling[t]);
 	const other = move.alternative === t ? candidates[0] : move.alternative;
-	// A chord tone that landed on a chord tone keeps it; anything else may move aside.
-	const anchored = F.roles[s] === 'chord-tone' && T.roles[t] === 'chord-tone';
+	// A chord tone that landed on its own chord tone keeps it; anything else may move aside.
+	const anchored =
+		move.anchored || (F.roles[s] === 'chord-tone' && T.roles[t] === 'chord-tone' && !move.standIn);
 	if (other !== null && other !== t && !anchored) job.alternative[i] = other;
 	if (candidates.length > 1 || (move.reason && t !== s)) {
 		job.ambiguous ??= new Map();
@@ -310,6 +315,14 @@ function fillWarning(job: Job, a: number, b: number, span: number): MusicWarning
 		? ` Moving the figure to the ${INTERVAL_NAMES[source] ?? 'same span'} ${matching} of ${toChord} keeps it whole; or write this version by hand.`
 		: ' Write this version by hand if it matters.';
 	const notesConcerned = range(notes, a, b);
+	// An end the target lacks (the 3 of a sus chord): the fill has nothing to land on.
+	const lost = [a, b].find((k) => job.moves[semis[k]].standIn);
+	if (lost !== undefined)
+		return marked(
+			'fill-lost',
+			`The chromatic fill from ${ends} over ${fromChord} cannot survive over ${toChord}: it has no ${F.labels[semis[lost]]}, and the ${T.labels[landedAt(job, lost)]} (${out(job, lost)}) that takes its place leaves the fill ${passing > room ? `${passing - room === 1 ? 'one passing tone' : `${passing - room} passing tones`} too long, so a pitch repeats` : `${room - passing === 1 ? 'a half step' : `${room - passing} half steps`} short`}. Write this version by hand, or re-map over a chord that keeps the ${F.labels[semis[lost]]}.`,
+			notesConcerned
+		);
 	if (passing > room)
 		return marked(
 			'fill-too-long',
@@ -407,19 +420,8 @@ export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions
 			'remapNotes needs options.root when no note has a chord in force'
 		);
 	const homeChroma = chromaOfName(homeName);
-	const F = qualityTable(from);
-	const job = scratch(n);
-	job.notes = notes;
-	job.from = from;
-	job.to = to;
-	job.F = F;
-	job.T = qualityTable(to);
-	job.moves = moves;
-	job.pitches = new Array<PitchName>(n);
-	job.ambiguous = null;
-	job.avoid = null;
-	job.warnings = [];
-	const { roots, semis, isTone, midis, pitches, done } = job;
+	const job = newJob(notes, from, to, moves);
+	const { roots, semis, isTone, midis, pitches, done, F } = job;
 
 	// Context of each note; consecutive notes share a chord object, so it is read once.
 	const kept: number[] = [];
@@ -478,11 +480,74 @@ export function remapNotes(notes: readonly SoundingNote[], options: RemapOptions
 		if (collides(job, i, midi, i - 1) || collides(job, i, midi, i + 1)) continue;
 		place(job, i, midi, job.T.spelling[other]);
 	}
+	leanOneWay(job);
 	finalWarnings(job, kept, homeName);
-	const result = { pitches, warnings: job.warnings };
-	job.notes = [];
-	job.roots.fill(null);
-	return result;
+	return { pitches, warnings: job.warnings };
+}
+
+/**
+ * Which way a spelling leans from its root: -1 for a minor or diminished interval (D♭, G♭ over
+ * C), +1 for an augmented one (D♯, F♯ over C), 0 for major and perfect ones.
+ */
+function leanOf(root: SpelledNote, pitch: PitchName): number {
+	const p = readNote(pitch);
+	const steps = (p.letter - root.letter + 7) % 7;
+	const diff = smallestMove(LS[steps], mod12(LS[p.letter] + p.alt - LS[root.letter] - root.alt));
+	return Math.sign(diff);
+}
+
+/**
+ * One gesture (notes without a rest between them, over the chord being re-mapped) does not mix
+ * a G♭ with a D♯: the chromatic notes the re-mapping moved are written on the side the gesture
+ * leans. The target's tensions decide first (their spelling is the chord's: the #11 of C7alt is
+ * G♭), then the teacher's own spelling of the gesture, then flats (common practice: horn charts
+ * lean flat). Chord tones and tensions keep the chord's spelling; notes that kept their pitch keep
+ * the teacher's.
+ */
+function leanOneWay(job: Job): void {
+	const { notes, roots, midis, pitches, T } = job;
+	const n = notes.length;
+	let a = 0;
+	while (a < n) {
+		let b = a + 1;
+		while (
+			b < n &&
+			roots[b] &&
+			roots[b - 1] &&
+			notes[b].start <= notes[b - 1].start + notes[b - 1].duration + 1e-9
+		)
+			b++;
+		let moved = 0;
+		for (let i = a; i < b; i++)
+			if (roots[i] && midis[i] !== notes[i].midi && T.roles[landedAt(job, i)] === 'chromatic')
+				moved++;
+		if (moved === 0) {
+			a = b;
+			continue;
+		}
+		let fixed = 0;
+		let source = 0;
+		for (let i = a; i < b; i++) {
+			const root = roots[i];
+			if (!root) continue;
+			if (T.roles[landedAt(job, i)] === 'tension') fixed += leanOf(root, pitches[i]);
+			if (job.F.roles[job.semis[i]] !== 'chord-tone') source += leanOf(root, notes[i].pitch);
+		}
+		const want = fixed !== 0 ? Math.sign(fixed) : source > 0 ? 1 : -1;
+		for (let i = a; i < b; i++) {
+			const root = roots[i];
+			if (!root || midis[i] === notes[i].midi) continue;
+			if (T.roles[landedAt(job, i)] !== 'chromatic') continue;
+			if (leanOf(root, pitches[i]) !== -want) continue;
+			const p = readNote(pitches[i]);
+			const letter = (p.letter + (want < 0 ? 1 : 6)) % 7;
+			const alt = smallestMove(LS[letter], mod12(midis[i]));
+			if (alt > 1 || alt < -1) continue;
+			const octave = Math.floor((midis[i] - LS[letter] - alt) / 12) - 1;
+			pitches[i] = formatPitch({ letter, alt, octave });
+		}
+		a = b;
+	}
 }
 
 const pitchOf = (n: SoundingNote): PitchName => n.pitch;

@@ -6,6 +6,7 @@
  * Always within the keys an assignment names. Pure: history and seed are passed in.
  */
 import { CYCLE_OF_FOURTHS, MAJOR_KEY_SPELLINGS } from '../music/key-data';
+import { chromaOf, mod12, parseNoteName } from '../music/pitch';
 import { pickWeighted, seededRandom } from './random';
 
 /** The twelve concert tonics as a jazz player spells them (common practice; REFERENCES.md §2). */
@@ -16,16 +17,14 @@ export const FOURTHS_ORDER = CYCLE_OF_FOURTHS;
 
 export type KeyMode = 'weighted' | 'fourths' | 'fixed';
 
-const LETTER_PC: Record<string, number> = { C: 0, D: 2, E: 4, F: 5, G: 7, A: 9, B: 11 };
-
 /**
  * Pitch class of a key tonic ('Eb' 3, 'F#' 6, 'Gb' 6); null for anything else.
  * @example keyPitchClass('Bb') // 10
  */
 export function keyPitchClass(key: string): number | null {
-	const m = /^([A-G])(#|b)?$/.exec(key);
-	if (!m) return null;
-	return (LETTER_PC[m[1]] + (m[2] === '#' ? 1 : m[2] === 'b' ? -1 : 0) + 12) % 12;
+	if (!/^[A-G](#|b)?$/.test(key)) return null;
+	const n = parseNoteName(key);
+	return n && mod12(chromaOf(n));
 }
 
 /** One prompt of a lick in the past: its key, when, how it went. */

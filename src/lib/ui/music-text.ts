@@ -1,9 +1,11 @@
 /**
- * Display helpers for music text on screen: real accidental signs instead of abc/ASCII spelling,
- * and the few header values the player needs from returned abc. Pure and framework-free.
+ * Display helpers for music text on screen: real accidental signs instead of abc/ASCII spelling.
+ * Meter and tempo come with the engine's answer (`beatsPerBar`, `tempo`), never from the text.
+ * Pure and framework-free.
  */
 
-import { beatsPerBar, readTempo } from '$lib/music/meter';
+import { chordTemplate } from '$lib/music/chord-symbol';
+import { formatNoteName } from '$lib/music/pitch';
 
 const SIGN = { b: '♭', '#': '♯' } as const;
 
@@ -27,11 +29,17 @@ export function noteForDisplay(pitch: string): string {
  * @example chordForDisplay('Bb7#11/Db') // 'B♭7♯11/D♭'
  */
 export function chordForDisplay(symbol: string): string {
-	return symbol
-		.replace(/^([A-G])([b#])/, (_, letter: string, a: 'b' | '#') => letter + SIGN[a])
-		.replace(/\/([A-G])([b#])/, (_, letter: string, a: 'b' | '#') => `/${letter}${SIGN[a]}`)
-		.replace(/([b#])(?=\d)/g, (a) => SIGN[a as 'b' | '#']);
+	// Roots and bass notes as the one chord-symbol reader finds them; alterations in the rest.
+	const t = chordTemplate(symbol);
+	let out = alterations(t.pieces[0]);
+	t.roots.forEach((r, i) => {
+		out += noteForDisplay(formatNoteName(r)) + alterations(t.pieces[i + 1]);
+	});
+	return out;
 }
+
+const alterations = (text: string): string =>
+	text.replace(/([b#])(?=\d)/g, (a) => SIGN[a as 'b' | '#']);
 
 /**
  * A degree label with signs; a dash for none.
@@ -40,24 +48,4 @@ export function chordForDisplay(symbol: string): string {
 export function degreeForDisplay(label: string | null): string {
 	if (!label) return '–';
 	return label.replace(/^bb/, '♭♭').replace(/^b/, '♭').replace(/^#/, '♯');
-}
-
-/**
- * Quarter-note tempo from an abc text's `Q:` field, for text that has no engine answer (a
- * variant answer carries `tempo`); `fallback` without one. Reading is `readTempo`'s.
- * @example tempoFromAbc('X:1\nQ:1/4=132\nK:C\nc') // 132
- */
-export function tempoFromAbc(abc: string, fallback = 120): number {
-	const m = /^Q:(.*)$/m.exec(abc);
-	return (m && readTempo(m[1])) ?? fallback;
-}
-
-/**
- * Count-in beats from an abc text's `M:` field, for text that has no engine answer (a variant
- * answer carries `beatsPerBar`). Reading is `beatsPerBar`'s.
- * @example countInBeats('M:6/8\nK:G') // 2
- */
-export function countInBeats(abc: string): number {
-	const m = /^M:(.*)$/m.exec(abc);
-	return beatsPerBar(m ? m[1] : '');
 }

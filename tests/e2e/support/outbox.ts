@@ -48,3 +48,23 @@ export function linkIn(mail: ParsedMail, pathPrefix: string): URL {
 	}
 	throw new Error(`No link to ${pathPrefix} in the mail "${mail.subject}".`);
 }
+
+/**
+ * The newest mail to `address` with `subject`, waiting for it: for mails that may be sent just
+ * after the page answered, when an earlier mail to the same address is already in the outbox.
+ */
+export async function newestMailWithSubject(
+	address: string,
+	subject: string,
+	timeoutMs = 10_000
+): Promise<ParsedMail> {
+	const deadline = Date.now() + timeoutMs;
+	for (;;) {
+		const mail = await newestMailTo(address, Math.max(0, deadline - Date.now()));
+		if (mail.subject === subject) return mail;
+		if (Date.now() > deadline) {
+			throw new Error(`No mail "${subject}" to ${address}; the newest is "${mail.subject}".`);
+		}
+		await new Promise((r) => setTimeout(r, 200));
+	}
+}

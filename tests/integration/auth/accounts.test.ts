@@ -16,7 +16,7 @@ import {
 import { createSession, validateSessionToken } from '../../../src/lib/server/auth/session';
 import { hashToken } from '../../../src/lib/server/auth/tokens';
 import { EmailToken, Session, User } from '../../../src/lib/server/db/models/index';
-import { listMessages } from '../../../src/lib/server/mail/outbox';
+import { listMessages, readMessage } from '../../../src/lib/server/mail/outbox';
 import { openTestWorld, tokenFromOutbox, type TestWorld } from '../support/world';
 
 let world: TestWorld;
@@ -192,7 +192,11 @@ describe('resetting a forgotten password', () => {
 		const token = await tokenFromOutbox(email, '/reset-password');
 
 		expect(await resetPassword(token, 'short')).toMatchObject({ reason: 'invalid' });
-		expect(await resetPassword(token, 'comping-chords-9')).toEqual({ ok: true, userId: user.id });
+		expect(await resetPassword(token, 'comping-chords-9')).toEqual({
+			ok: true,
+			userId: user.id,
+			mailSent: true
+		});
 		expect(await signIn({ email, password: PASSWORD })).toMatchObject({ ok: false });
 		expect(await signIn({ email, password: 'comping-chords-9' })).toMatchObject({ ok: true });
 		expect((await validateSessionToken(sessionToken)).user).toBeNull();
@@ -256,15 +260,160 @@ describe('changing the password', () => {
 				{ currentPassword: PASSWORD, password: 'comping-chords-9', confirm: 'comping-chords-9' },
 				here.session.id
 			)
-		).toEqual({
-			ok: true
-		});
+		).toEqual({ ok: true, mailSent: true });
 
 		expect((await validateSessionToken(here.token)).user?.id).toBe(user.id);
 		expect((await validateSessionToken(elsewhere.token)).user).toBeNull();
 		expect(await signIn({ email, password: 'comping-chords-9' })).toMatchObject({ ok: true });
 	});
 });
+
+describe('weak passwords', () => {
+	test.each(['password12', 'qwerty1234', 'Twelvefold1', 'EMAIL'])(
+		'%j is refused at sign-up, by a reset link and on a password change, changing nothing',
+		async (weak) => {
+			const email = address();
+			const password = weak === 'EMAIL' ? email : weak;
+			const before = await User.count();
+			expect(await signUp({ email, password, name: 'Wes Weak', role: 'learner' })).toMatchObject({
+				ok: false,
+				field: 'password',
+				message: expect.stringMatching(/^Too easy to guess: .+ Use at least 10 characters/)
+			});
+			expect(await User.count()).toBe(before);
+
+			const { email: owner, user } = await signedUp();
+			const own = weak === 'EMAIL' ? owner : weak;
+			const hashBefore = (await User.findByPk(user.id))!.passwordHash;
+			expect(
+				await changePassword(user.id, { currentPassword: PASSWORD, password: own, confirm: own })
+			).toMatchObject({ ok: false, field: 'password' });
+			await requestPasswordReset(owner);
+			const token = await tokenFromOutbox(owner, '/reset-password');
+			expect(await resetPassword(token, own)).toMatchObject({ ok: false, field: 'password' });
+			expect((await User.findByPk(user.id))!.passwordHash).toBe(hashBefore);
+			// The link was not spent on the refusal: a good password still goes through with it.
+			expect(await resetPassword(token, 'comping-chords-9')).toMatchObject({ ok: true });
+		}
+	);
+
+	test("a password built on the owner's name is refused with that reason", async () => {
+		const result = await signUp({
+			email: address(),
+			password: 'Marguerite Oduya 1',
+			name: 'Marguerite Oduya',
+			role: 'learner'
+		});
+		expect(result).toMatchObject({
+			field: 'password',
+			message: expect.stringMatching(/your name/)
+		});
+	});
+});
+
+describe('concurrent password changes', () => {
+	test('twenty at once from the same current password: exactly one takes effect, the others are refused', async () => {
+		const { email, user } = await signedUp();
+		const candidates = Array.from({ length: 20 }, (_, i) => `parallel-change-${i}-x7`);
+		const results = await Promise.all(
+			candidates.map((password) =>
+				changePassword(user.id, { currentPassword: PASSWORD, password, confirm: password })
+			)
+		);
+		const winners = results.flatMap((r, i) => (r.ok ? [candidates[i]] : []));
+		expect(winners).toHaveLength(1);
+		for (const result of results.filter((r) => !r.ok)) {
+			// Either the compare-and-set lost, or (started after the winner wrote) the current
+			// password no longer matched: both a clear refusal, never a silent success.
+			expect(result).toMatchObject(
+				expect.objectContaining({
+					ok: false,
+					message: expect.stringMatching(
+						/changed by another request at the same moment|not your current password/
+					)
+				})
+			);
+		}
+		expect(results.filter((r) => !r.ok && r.reason === 'conflict').length).toBeGreaterThan(0);
+		expect(await signIn({ email, password: winners[0] })).toMatchObject({ ok: true });
+		expect(await signIn({ email, password: PASSWORD })).toMatchObject({ ok: false });
+		// One change, one mail to the owner.
+		const changedMails = (await listMessages()).filter(
+			(m) => m.to.includes(email) && m.subject === 'Your Twelvefold password was changed'
+		);
+		expect(changedMails).toHaveLength(1);
+	});
+});
+
+describe('mails to the owner when the password changes', () => {
+	test('a change and a reset each mail the owner, saying what to do if it was not them', async () => {
+		const { email, user } = await signedUp();
+		await changePassword(user.id, {
+			currentPassword: PASSWORD,
+			password: 'comping-chords-9',
+			confirm: 'comping-chords-9'
+		});
+		const changed = await newestMailTo(email);
+		expect(changed.subject).toBe('Your Twelvefold password was changed');
+		expect(changed.text).toMatch(/If it was not you, someone knows your password/);
+		expect(changed.links).toEqual(['http://twelvefold.test/forgot-password']);
+
+		await requestPasswordReset(email);
+		const token = await tokenFromOutbox(email, '/reset-password');
+		await resetPassword(token, 'swing-eighths-42');
+		const reset = await newestMailTo(email);
+		expect(reset.subject).toBe('Your Twelvefold password was reset');
+		expect(reset.text).toMatch(/If it was not you, someone can read this mailbox/);
+		expect(reset.links).toEqual(['http://twelvefold.test/forgot-password']);
+	});
+});
+
+describe('text from strangers in mail', () => {
+	const hostile = 'Claim your prize at www.prize-claim.test/now';
+
+	test('the verification mail carries neither the sign-up name nor a link made of it', async () => {
+		const email = address();
+		const result = await signUp({ email, password: PASSWORD, name: hostile, role: 'learner' });
+		expect(result.ok).toBe(true);
+		const mail = await newestMailTo(email);
+		expect(mail.subject).toBe('Confirm your e-mail address for Twelvefold');
+		for (const part of [mail.subject, mail.text, mail.html ?? '']) {
+			expect(part).not.toContain('prize');
+			expect(part).not.toContain('Claim');
+		}
+		expect(mail.links).toHaveLength(1);
+		expect(new URL(mail.links[0]).pathname).toBe('/verify-email');
+		expect(mail.text?.startsWith('Hello,\n')).toBe(true);
+	});
+
+	test('a reset mail to an unconfirmed address has no name; once confirmed, the owner is greeted', async () => {
+		const email = address();
+		await signUp({ email, password: PASSWORD, name: hostile, role: 'learner' });
+		const verifyToken = await tokenFromOutbox(email, '/verify-email');
+
+		await requestPasswordReset(email);
+		const before = await newestMailTo(email);
+		expect(before.subject).toBe('Choose a new Twelvefold password');
+		expect(`${before.text}${before.html}`).not.toContain('prize');
+		expect(before.links.every((link) => new URL(link).host === 'twelvefold.test')).toBe(true);
+
+		await verifyEmail(verifyToken);
+		await requestPasswordReset(email);
+		const after = await newestMailTo(email);
+		expect(after.text?.startsWith(`Hello ${hostile},`)).toBe(true);
+		// Even then the name is text, never the target of a link of ours.
+		expect(after.links.every((link) => new URL(link).host === 'twelvefold.test')).toBe(true);
+	});
+});
+
+/** The newest mail to `to`, read back from the real outbox. */
+async function newestMailTo(to: string) {
+	const summary = (await listMessages()).find((m) => m.to.includes(to));
+	if (!summary) throw new Error(`no mail to ${to}`);
+	const read = await readMessage(summary.id);
+	if (!read.ok) throw new Error(`mail ${summary.id} unreadable`);
+	return read.message;
+}
 
 describe('deleting an account', () => {
 	test('needs the password, then removes the user with their sessions and tokens', async () => {

@@ -114,6 +114,25 @@ describe('POST /api/auth/sign-up', () => {
 	});
 
 	test.each([
+		['password12', /one of the most common passwords/],
+		['qwerty1234', /common passwords|keyboard pattern/],
+		['Twelvefold1', /the name of this site/],
+		['weak-one@example.test', /your e-mail address/]
+	])('refuses the weak password %j with 422 saying why', async (password, why) => {
+		const before = await User.count();
+		const res = await call(signUpPost, {
+			method: 'POST',
+			routeId: '/api/auth/sign-up',
+			body: { email: 'weak-one@example.test', password, name: 'Weak One', role: 'learner' }
+		});
+		expect(res.status).toBe(422);
+		const body = await res.json();
+		expect(body).toMatchObject({ error: { field: 'password' } });
+		expect(body.error.message).toMatch(why);
+		expect(await User.count()).toBe(before);
+	});
+
+	test.each([
 		['{"email": ', 'application/json', 400],
 		['[1, 2]', 'application/json', 400],
 		['null', 'application/json', 400],

@@ -47,6 +47,15 @@ describe('seedDemo', () => {
 		);
 	});
 
+	it("refuses a weak demo password with the rule's own reason, writing nothing", async () => {
+		const before = await snapshot();
+		await expect(seedDemo('password12')).rejects.toThrow(
+			/^DEMO_PASSWORD for admin@example\.com: Too easy to guess: it is one of the most common/
+		);
+		await expect(seedDemo('Twelvefold1')).rejects.toThrow(/the name of this site/);
+		expect(await snapshot()).toEqual(before);
+	});
+
 	it('changes nothing when run a second time', async () => {
 		const before = await snapshot();
 		const report = await seedDemo('another-password-99');

@@ -148,6 +148,19 @@ describe('variants and the editor check', () => {
 		expect(bad.status).toBe(422);
 		expect(bad.data.error).toMatchObject({ line: 3, column: 10 });
 	});
+
+	it('tells the editor where the two readings of abc 2.1 §11.3 differ, and which one it uses', async () => {
+		const ok = await call(checkRoute.POST, w.learner, {
+			body: { abc: lickAbc('x', '"C7" ^c c C2 z4 |]') }
+		});
+		expect(ok.status).toBe(200);
+		const reading = ok.data.own.warnings.find(
+			(x: { code: string }) => x.code === 'accidental-reading'
+		);
+		expect(reading.message).toContain('which is how it is read here');
+		// read the standard's way: the C sounds C#4, MIDI 61 (REFERENCES.md §1; written Db over C7)
+		expect(ok.data.own.notes[2].midi).toBe(61);
+	});
 });
 
 describe('listing', () => {

@@ -42,11 +42,11 @@ beforeAll(async () => {
 	await startMail();
 	await sendMail({
 		to: 'lee@example.com',
-		...verificationMail({ name: 'Lee', url: 'http://localhost:3000/verify?token=l1' })
+		...verificationMail({ url: 'http://localhost:3000/verify?token=l1' })
 	});
 	await sendMail({
 		to: 'max@example.com',
-		...verificationMail({ name: 'Max', url: 'http://localhost:3000/verify?token=m1' })
+		...verificationMail({ url: 'http://localhost:3000/verify?token=m1' })
 	});
 });
 
@@ -199,7 +199,7 @@ describe('the admin JSON API', () => {
 			to: 'max@example.com',
 			links: ['http://localhost:3000/verify?token=m1']
 		});
-		expect(body.text).toContain('Hello Max,');
+		expect(body.text).toContain('Hello,');
 		expect(body.html).toContain('Confirm my address');
 	});
 

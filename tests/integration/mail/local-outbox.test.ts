@@ -4,7 +4,7 @@ import { simpleParser } from 'mailparser';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { getMailStatus, sendMail, startMail, stopMail } from '$lib/server/mail';
 import { countMessages, listMessages, readMessage } from '$lib/server/mail/outbox';
-import { passwordResetMail, renderMail, verificationMail } from '$lib/server/mail/templates';
+import { passwordResetMail, renderMail } from '$lib/server/mail/templates';
 import { useTempDataDir } from '../support/mail';
 
 let data: Awaited<ReturnType<typeof useTempDataDir>>;
@@ -39,7 +39,7 @@ describe('the local SMTP stand-in', () => {
 		const before = await emlFiles();
 		await sendMail({
 			to: 'ada@example.com',
-			...verificationMail({ name: hostileName, url: verifyUrl })
+			...passwordResetMail({ name: hostileName, url: verifyUrl })
 		});
 		const after = await emlFiles();
 		expect(after).toHaveLength(before.length + 1);
@@ -47,7 +47,7 @@ describe('the local SMTP stand-in', () => {
 		expect(newest).toMatch(/^\d{8}T\d{9}Z-[0-9a-f]{6}\.eml$/);
 
 		const parsed = await simpleParser(await readFile(path.join(data.outbox, newest)));
-		expect(parsed.subject).toBe('Confirm your e-mail address for Twelvefold');
+		expect(parsed.subject).toBe('Choose a new Twelvefold password');
 		expect(parsed.to && !Array.isArray(parsed.to) ? parsed.to.text : '').toBe('ada@example.com');
 		expect(parsed.from?.text).toContain('no-reply@twelvefold.test');
 		const html = String(parsed.html);

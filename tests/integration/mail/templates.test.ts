@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
 	checkMailUrl,
 	escapeHtml,
+	passwordChangedMail,
 	passwordResetMail,
 	renderMail,
 	verificationMail
@@ -43,12 +44,6 @@ describe('account mails', () => {
 
 	it.each([
 		[
-			'verification',
-			verificationMail,
-			'Confirm your e-mail address for Twelvefold',
-			'Confirm my address'
-		],
-		[
 			'password reset',
 			passwordResetMail,
 			'Choose a new Twelvefold password',
@@ -69,15 +64,51 @@ describe('account mails', () => {
 
 	it('escapes a hostile name in the HTML part and keeps it verbatim in the text part', () => {
 		const name = '"><img src=x onerror=alert(1)>';
-		const mail = verificationMail({ name, url });
+		const mail = passwordResetMail({ name, url });
 		expect(mail.html).not.toContain('<img');
 		expect(mail.html).toContain('Hello &quot;&gt;&lt;img src=x onerror=alert(1)&gt;,');
 		expect(mail.text).toContain(`Hello ${name},`);
 	});
 
-	it('greets without a name when the name is blank', () => {
-		expect(verificationMail({ name: '   ', url }).text.startsWith('Hello,\n')).toBe(true);
+	it('greets without a name when the name is blank or withheld', () => {
+		expect(passwordResetMail({ name: '   ', url }).text.startsWith('Hello,\n')).toBe(true);
+		expect(passwordResetMail({ name: null, url }).text.startsWith('Hello,\n')).toBe(true);
 	});
+
+	it('the verification mail takes no name at all: it goes to an address that agreed to nothing', () => {
+		const mail = verificationMail({ url });
+		expect(mail.subject).toBe('Confirm your e-mail address for Twelvefold');
+		expect(mail.headers).toBeUndefined();
+		expect(mail.text.startsWith('Hello,\n\n')).toBe(true);
+		expect(mail.html).toContain(`href="https://twelvefold.test/verify?token=t0k&amp;x=1"`);
+		expect(mail.text).toContain(`Confirm my address:\n${url}`);
+	});
+
+	it('says the lifetimes of the links that the server gives them', () => {
+		// The lifetimes themselves are in the auth tests; here, the mails say the same numbers.
+		expect(verificationMail({ url }).text).toContain('The link works once, for 24 hours.');
+		expect(passwordResetMail({ name: null, url }).text).toContain(
+			'The link works once, for 60 minutes.'
+		);
+	});
+
+	it.each([
+		['changed', 'Your Twelvefold password was changed', /someone knows your password/],
+		['reset', 'Your Twelvefold password was reset', /someone can read this mailbox/]
+	] as const)(
+		'the password %s mail says when, and what to do if it was not you',
+		(how, subject, advice) => {
+			const resetUrl = 'https://twelvefold.test/forgot-password';
+			const at = new Date('2026-03-02T08:05:00Z');
+			const mail = passwordChangedMail({ name: 'Ada', how, at, resetUrl });
+			expect(mail.subject).toBe(subject);
+			expect(mail.text.startsWith('Hello Ada,\n\n')).toBe(true);
+			expect(mail.text).toContain('2026-03-02 at 08:05 UTC');
+			expect(mail.text).toMatch(advice);
+			expect(mail.text).toContain(`Mail me a reset link:\n${resetUrl}`);
+			expect(mail.html).toContain(`href="${resetUrl}"`);
+		}
+	);
 
 	it('refuses a link that is not an absolute http(s) URL', () => {
 		expect(() => passwordResetMail({ name: 'Ada', url: 'javascript:alert(1)' })).toThrow(
@@ -86,7 +117,7 @@ describe('account mails', () => {
 	});
 
 	it('uses the palette colours inline, with a dark-scheme override as its only stylesheet', () => {
-		const { html } = verificationMail({ name: 'Ada', url });
+		const { html } = verificationMail({ url });
 		for (const colour of ['#0f3d3e', '#f2b134', '#fcfaf5']) expect(html).toContain(colour);
 		expect(html).not.toMatch(/<link/);
 		// Clients that drop <style> still get the light design from the inline colours.

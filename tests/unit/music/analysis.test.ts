@@ -112,6 +112,48 @@ describe('analyseNotes: enclosures', () => {
 	});
 });
 
+describe('analyseNotes: enclosures with passing tones, and what is not one', () => {
+	it('reads "C7" F D D# E as an enclosure of the 3 with D# passing, not an enclosure of the #9', () => {
+		// common practice: the D# moves on by the same half step to the chord tone E
+		const encl = devicesOf('C7', 'F4 D4 D#4 E4').filter((d) => d.kind === 'enclosure');
+		expect(encl).toHaveLength(1);
+		expect(encl[0]).toMatchObject({ start: 0, end: 3, degrees: ['11', '9', '#9', '3'] });
+		expect(encl[0].label).toBe(
+			'An enclosure of the 3 (E) over C7: F a half step above, D a whole step below, D# a passing tone, then the target.'
+		);
+	});
+
+	it('finds the same shape in every key, always aiming at the 3', () => {
+		// common practice; the 3 of each dominant checked against tonal 6.5.1 Chord.get(…).notes[1]
+		for (const root of ['C', 'Db', 'D', 'Eb', 'E', 'F', 'Gb', 'G', 'Ab', 'A', 'Bb', 'B']) {
+			const third = Note.transpose(root + '4', '3M');
+			const line = ['2m', '-2M', '-2m', '1P'].map((iv) =>
+				Note.transpose(third, iv.startsWith('-') ? '-' + iv.slice(1) : iv)
+			);
+			const encl = devicesOf(root + '7', line.join(' ')).filter((d) => d.kind === 'enclosure');
+			expect(encl, root).toHaveLength(1);
+			expect(encl[0].label).toContain(`of the 3 (${Chord.get(root + '7').notes[1]})`);
+		}
+	});
+
+	it('does not call the end of an arpeggio across a chord change an enclosure', () => {
+		// D F# A C# spells Dmaj7; the B after the change to G7 is where the line goes, not a target
+		const devices = devicesOf(['D7', 'G7'], 'D4 F#4 A4 C#5 | B4 D5');
+		expect(devices.map((d) => d.kind)).toEqual(['arpeggio']);
+		// the same approach notes outside an arpeggio still enclose the 3 of G7
+		expect(kinds(['D7', 'G7'], 'E4 A4 C#5 | B4 D5')).toContain('enclosure');
+	});
+
+	it('labels an arpeggio over a chord outside the table from its own tones (over DmMaj7 F is the b3)', () => {
+		// reference: tonal 6.5.1 ChordType.get('mMaj7').intervals is 1P 3m 5P 7M
+		const [arp] = devicesOf('DmMaj7', 'D4 F4 A4 C#5');
+		expect(arp.degrees).toEqual(['R', 'b3', '5', '7']);
+		expect(arp.label).toContain('the chord tones of DmMaj7');
+		const [nine] = devicesOf('C7#9', 'C4 E4 G4 Bb4');
+		expect(nine.label).toContain('the chord tones of C7#9, R 3 5 b7');
+	});
+});
+
 describe('analyseNotes: leaps', () => {
 	it.each([
 		['D4 Bb4', 8, 'minor sixth up'],

@@ -120,9 +120,26 @@ describe('degreeOf', () => {
 			}
 	});
 
-	it('names degrees over an unknown quality as over a dominant, with the role unknown', () => {
-		expect(degreeOf('G#4', chordOf('C+'))).toMatchObject({ label: 'b13', role: 'unknown' });
+	it('names degrees over a quality outside the table from its own tones, the rest as over a dominant', () => {
+		// reference: tonal 6.5.1 ChordType.get('+').intervals is 1P 3M 5A: G# is a chord tone of C+
+		expect(degreeOf('G#4', chordOf('C+'))).toMatchObject({ label: 'b13', role: 'chord-tone' });
+		expect(degreeOf('D4', chordOf('C+'))).toMatchObject({ label: '9', role: 'unknown' });
 	});
+
+	it.each([
+		// reference: tonal 6.5.1 ChordType.get(<suffix>).intervals (run); the engine's answer over
+		// CmMaj7, C7#9, C13 and C7b13 is checked in chord-spelling.test.ts
+		['CmMaj7', 'Eb4', 'b3', 'chord-tone'],
+		['C7#11', 'F#4', '#11', 'chord-tone'],
+		['C9', 'D4', '9', 'chord-tone'],
+		['Cmaj7#11', 'F#4', '#11', 'chord-tone'],
+		['Cmaj7#11', 'B4', '7', 'chord-tone']
+	])(
+		'labels over %s the note %s as the %s, a %s, from the symbol’s own tones',
+		(symbol, pitch, label, role) => {
+			expect(degreeOf(pitch, chordOf(symbol))).toMatchObject({ label, role });
+		}
+	);
 
 	it('gives every quality twelve distinct labels with a scale-degree number', () => {
 		for (const q of QUALITY_IDS) {

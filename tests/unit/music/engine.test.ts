@@ -379,7 +379,12 @@ const untouched = (abc: string) => {
 	const r = tokenize(abc);
 	if (!r.ok) throw new Error(r.error.message);
 	return r.tokens
-		.filter((t) => t.kind !== 'note' && t.kind !== 'chord-symbol' && t.name !== 'K')
+		.filter(
+			(t) =>
+				t.kind !== 'note' &&
+				t.kind !== 'chord-symbol' &&
+				!((t.kind === 'field' || t.kind === 'inline-field') && t.name === 'K')
+		)
 		.map((t) => t.text);
 };
 
@@ -486,5 +491,35 @@ describe('properties of the twelve-key transposition', () => {
 			}),
 			{ numRuns: 30, seed: 5 }
 		);
+	});
+});
+
+describe('a tie across a bar line', () => {
+	const TIED = HEAD + 'K:C\n"C7"^G4- | G4 G2 A2 |]\n';
+
+	it('carries its accidental through transposition, degrees and playback in every key', () => {
+		// engraving practice (Gould, Behind Bars, from memory); reference: abcjs 6.7.2 setUpAudio
+		for (const to of MAJOR_KEY_SPELLINGS) {
+			const v = variant(TIED, { to });
+			const [held, plain] = v.notes;
+			expect(held.duration, to).toBe(1);
+			// G# over C7 is the b13 a semitone above the 5 (REFERENCES.md §3)
+			expect(held.degree, to).toBe('b13');
+			expect(plain.degree, to).toBe('5');
+			expect(held.midi - plain.midi, to).toBe(1);
+			expect(reparse(v.abc).notes.map((n) => [n.midi, n.duration])).toEqual(
+				v.notes.map((n) => [n.midi, n.duration])
+			);
+			expect(abcjsNotes(v.abc).map((x) => x[1])).toEqual(v.notes.map((n) => n.midi));
+		}
+	});
+
+	it('gives no tie warning for it, and a sentence on the reading where octaves disagree', () => {
+		expect(variant(TIED).warnings).toEqual([]);
+		const v = variant(HEAD + 'K:C\n"C7"^c2 c2 C4 |]\n', { to: 'F' });
+		const w = v.warnings.find((x) => x.code === 'accidental-reading');
+		expect(w?.message).toContain('abc 2.1 §11.3');
+		// the variant is written so that both readings agree (REFERENCES.md §1)
+		expect(v.abc).toContain('"F7"_g2 g2 _G4');
 	});
 });

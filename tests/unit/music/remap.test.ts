@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { Note } from 'tonal';
+import { Chord, Interval, Note, Scale } from 'tonal';
 import { degreeOf } from '../../../src/lib/music/degrees';
 import { qualityTable } from '../../../src/lib/music/qualities';
 import { remapNotes } from '../../../src/lib/music/remap';
@@ -23,7 +23,8 @@ describe('remapNotes through chord-scale degrees', () => {
 		['D4', '9', '9', '9', '9'],
 		['D#4', '#9', 'b3', '9', 'b3'],
 		['E4', '3', 'b3', '3', 'b3'],
-		['F4', '11', '11', '11', '11'],
+		// Over maj7 the avoid 11 takes the Lydian #11 (Levine, from memory; tonal Scale.get('C lydian')).
+		['F4', '11', '11', '#11', '11'],
 		['F#4', '#11', '11', '#11', 'b5'],
 		['G4', '5', '5', '5', 'b5'],
 		['Ab4', 'b13', '13', '13', 'b13'],
@@ -175,13 +176,14 @@ describe('remapNotes warnings', () => {
 		for (let i = 0; i + 1 < 4; i++) expect(midis[i + 1]).toBeLessThanOrEqual(midis[i]);
 	});
 
-	it('warns about a long note landing on an avoid note of the target (the 3 of a sus chord)', () => {
-		const notes = lineOver('C7', 'G4 E4');
+	it('warns about a long note landing on an avoid note of the target (the 11 of a sixth chord)', () => {
+		// Levine, from memory: 11 is the avoid note over a tonic major chord; a tension over Dorian.
+		const notes = lineOver('Cm7', 'G4 F4');
 		notes[1] = { ...notes[1], duration: 0.5 };
-		const r = remapNotes(notes, { from: '7', to: '7sus4' });
-		expect(r.pitches).toEqual(['G4', 'E4']);
+		const r = remapNotes(notes, { from: 'm7', to: '6' });
+		expect(r.pitches).toEqual(['G4', 'F4']);
 		expect(r.warnings).toEqual([expect.objectContaining({ code: 'avoid-note', notes: [1] })]);
-		expect(codes(remapNotes(lineOver('C7', 'G4 E4'), { from: '7', to: '7sus4' }))).toEqual([]);
+		expect(codes(remapNotes(lineOver('Cm7', 'G4 F4'), { from: 'm7', to: '6' }))).toEqual([]);
 	});
 });
 
@@ -281,6 +283,148 @@ describe('remapNotes properties', () => {
 				});
 			}),
 			{ numRuns: 1000 }
+		);
+	});
+});
+
+describe('remapNotes as a teacher would write it', () => {
+	// The twelve roots as jazz charts spell them (common practice; REFERENCES.md §2).
+	const ROOTS = ['C', 'Db', 'D', 'Eb', 'E', 'F', 'Gb', 'G', 'Ab', 'A', 'Bb', 'B'];
+	const pc = (p: string) => p.replace(/-?\d+$/, '');
+	const arpeggio = (root: string) =>
+		['1P', '3M', '5P', '7m'].map((iv) => Note.transpose(root + '4', iv)).join(' ');
+
+	it.each([
+		['6', 'the sixth replaces the seventh (C E G A)'],
+		['m6', 'the sixth replaces the seventh over the minor third (C Eb G A)'],
+		['7sus4', 'the fourth replaces the third (C F G Bb)']
+	])(
+		'plays a dominant arpeggio over %s in every key as tonal 6.5.1 Chord.get spells it: %s',
+		(q) => {
+			for (const root of ROOTS) {
+				const r = remapNotes(lineOver(root + '7', arpeggio(root)), {
+					from: '7',
+					to: q as QualityId
+				});
+				// reference: tonal 6.5.1 Chord.get('<root><quality>').notes (run), in the chord's own order
+				// (the engine writes no double accidentals: tonal's Bbb over Gbm6 is compared as A)
+				const expected = Chord.get(root + q).notes.map((n) =>
+					/bb|##/.test(n) ? Note.simplify(n) : n
+				);
+				expect(r.pitches.map(pc), `${root}7 → ${root}${q}`).toEqual(expected);
+				expect(r.warnings, `${root}${q}`).toEqual([]);
+			}
+		}
+	);
+
+	it('turns the avoid 11 into the Lydian #11 over maj7, in every key', () => {
+		// Levine, The Jazz Theory Book, from memory: a line re-mapped onto major takes Lydian;
+		// reference: tonal 6.5.1 Scale.get('<root> lydian').notes[3] (run)
+		for (const root of ROOTS) {
+			const line = ['5P', '4P', '3M'].map((iv) => Note.transpose(root + '4', iv)).join(' ');
+			const r = remapNotes(lineOver(root + '7', line), { from: '7', to: 'maj7' });
+			expect(pc(r.pitches[1]), root).toBe(Scale.get(root + ' lydian').notes[3]);
+			expect(r.pitches[0]).toBe(line.split(' ')[0]);
+		}
+	});
+
+	it('keeps the spelling of a blue note that keeps its pitch (Eb over C7 stays Eb over C6), in every key', () => {
+		// common practice: the blue third is written as a minor third above the root
+		for (const root of ROOTS) {
+			const blue = Note.transpose(root + '4', '3m');
+			const line = [blue, Note.transpose(root + '4', '3M'), Note.transpose(root + '4', '5P')];
+			for (const to of ['6', 'maj7', '7sus4'] as const) {
+				const r = remapNotes(lineOver(root + '7', line.join(' ')), { from: '7', to });
+				if (Note.midi(r.pitches[0]) === Note.midi(blue))
+					expect(r.pitches[0], `${root}7 → ${to}`).toBe(blue);
+			}
+			const six = remapNotes(lineOver(root + '7', line.join(' ')), { from: '7', to: '6' });
+			expect(six.pitches[0], root).toBe(blue);
+		}
+	});
+
+	it('keeps a chromatic approach rather than repeat a note: G A Bb C over C7 is G A B C over C6', () => {
+		// common practice: the b7 of a dominant line becomes the 6 over a sixth chord, unless the
+		// line already holds that 6 next to it; then the scale's 7 keeps the step.
+		expect(pitchesOf('C7', 'G4 A4 Bb4 C5', '6').pitches).toEqual(['G4', 'A4', 'B4', 'C5']);
+		expect(pitchesOf('C7', 'G4 A4 Bb4 C5', 'm6').pitches).toEqual(['G4', 'A4', 'B4', 'C5']);
+		// the 3 of C7 moving to the 11 stays a passing 3 over C7sus4 instead of doubling the 4
+		expect(pitchesOf('C7', 'D4 E4 F4 G4', '7sus4').pitches).toEqual(['D4', 'E4', 'F4', 'G4']);
+		expect(codes(pitchesOf('C7', 'G4 A4 Bb4 C5', '6'))).toEqual([]);
+		// a #9 approaching the 3 follows the 3 onto the 4 of the sus chord
+		expect(pitchesOf('C7', 'Eb4 E4', '7sus4').pitches).toEqual(['E4', 'F4']);
+	});
+
+	it('never turns an approach into a repeated note where the line had none, over every quality and key', () => {
+		const line = fc.array(fc.integer({ min: 55, max: 79 }), { minLength: 2, maxLength: 16 });
+		fc.assert(
+			fc.property(
+				line,
+				fc.constantFrom(...ROOTS),
+				fc.constantFrom(...QUALITY_IDS),
+				(midis, root, to) => {
+					const notes = lineOver(root + '7', midis.map((m) => Note.fromMidi(m)).join(' '));
+					const r = remapNotes(notes, { from: '7', to });
+					const out = r.pitches.map((p) => Note.midi(p)!);
+					// Any repeat the re-mapping makes is said in a warning (a collision or a fill that cannot survive).
+					for (let i = 0; i + 1 < out.length; i++)
+						if (out[i] === out[i + 1] && midis[i] !== midis[i + 1])
+							expect(
+								r.warnings.some((w) => w.notes?.includes(i) && w.notes.includes(i + 1)),
+								`${root}7 → ${to}: ${notes.map((n) => n.pitch).join(' ')} → ${r.pitches.join(' ')}`
+							).toBe(true);
+				}
+			),
+			{ numRuns: 500, seed: 7 }
+		);
+	});
+
+	it('says so when a chromatic fill cannot survive over 7sus4 (no 3 to land on)', () => {
+		const r = pitchesOf('C7', 'G4 Gb4 F4 E4', '7sus4');
+		const lost = r.warnings.find((w) => w.code === 'fill-lost');
+		expect(lost?.message).toContain('cannot survive over C7sus4');
+		expect(lost?.message).toContain('no 3');
+		expect(lost?.notes).toEqual([0, 1, 2, 3]);
+		expect(codes(pitchesOf('C7', 'E4 Eb4 D4 Db4 C4', '7sus4'))).toContain('fill-lost');
+	});
+
+	it('writes the chromatic notes it moved on the side their gesture leans, never G♭ beside D♯', () => {
+		// common practice: one gesture is written on one side; the chord's tensions (the b5 of
+		// C7alt is G♭, altered scale after tonal 6.5.1 Scale.get('C altered')) set the side.
+		const lean = (root: string, p: string): number => {
+			const q = Interval.get(Interval.distance(root, pc(p))).q;
+			return q === 'm' || q === 'd' ? -1 : q === 'A' ? 1 : 0;
+		};
+		fc.assert(
+			fc.property(
+				fc.array(fc.integer({ min: 55, max: 79 }), { minLength: 2, maxLength: 12 }),
+				fc.constantFrom(...ROOTS),
+				fc.constantFrom(...QUALITY_IDS),
+				fc.constantFrom(...QUALITY_IDS),
+				fc.boolean(),
+				(midis, root, from, to, sharps) => {
+					const line = midis.map((m) => (sharps ? Note.fromMidiSharps(m) : Note.fromMidi(m)));
+					const notes = lineOver(root + from, line.join(' '));
+					const r = remapNotes(notes, { from, to });
+					const target = chordOf(root + to);
+					const tensions = r.pitches
+						.filter((p) => degreeOf(p, target).role === 'tension')
+						.map((p) => lean(root, p))
+						.reduce((a, b) => a + b, 0);
+					if (tensions === 0) return;
+					r.pitches.forEach((p, i) => {
+						if (Note.midi(p) === midis[i] || degreeOf(p, target).role !== 'chromatic') return;
+						const other = Note.enharmonic(p);
+						// only where the other side needs no double accidental
+						if (/##|bb/.test(other) || other === p) return;
+						expect(
+							lean(root, p),
+							`${root}${from} → ${to}: ${line.join(' ')} → ${r.pitches.join(' ')}`
+						).not.toBe(-Math.sign(tensions));
+					});
+				}
+			),
+			{ numRuns: 1000, seed: 11 }
 		);
 	});
 });

@@ -1,11 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-	chordForDisplay,
-	countInBeats,
-	degreeForDisplay,
-	noteForDisplay,
-	tempoFromAbc
-} from '../../../src/lib/ui/music-text';
+import { chordForDisplay, degreeForDisplay, noteForDisplay } from '../../../src/lib/ui/music-text';
 
 describe('noteForDisplay', () => {
 	it.each([
@@ -47,39 +41,5 @@ describe('degreeForDisplay', () => {
 		[null, '–']
 	])('shows %j as %j', (label, shown) => {
 		expect(degreeForDisplay(label)).toBe(shown);
-	});
-});
-
-describe('tempoFromAbc', () => {
-	// abc standard 2.1 §3.1.8 for the Q: forms.
-	it.each([
-		['X:1\nQ:1/4=132\nK:C', 132],
-		['Q:1/2=60\nK:C', 120],
-		['Q:3/8=40\nK:C', 60],
-		['Q:100\nK:C', 100],
-		['X:1\nK:C', 120],
-		['Q:fast\nK:C', 120],
-		['Q:1/4=0\nK:C', 120]
-	])('reads the tempo of %j as %d quarters a minute', (abc, bpm) => {
-		expect(tempoFromAbc(abc)).toBe(bpm);
-	});
-});
-
-describe('countInBeats', () => {
-	// abc standard 2.1 §3.1.6 for the M: forms; the pulse per meter is common practice.
-	it.each([
-		['M:4/4', 4],
-		['M:3/4', 3],
-		['M:6/8', 2],
-		['M:12/8', 4],
-		['M:5/8', 5],
-		['M:2/2', 4],
-		['M:C', 4],
-		['M:C|', 4],
-		['M:none', 4],
-		['K:C', 4],
-		['M:0/4', 4]
-	])('counts in %j with %d beats', (abc, beats) => {
-		expect(countInBeats(abc)).toBe(beats);
 	});
 });

@@ -20,7 +20,10 @@ import {
 } from '../pitch';
 import { simplifyNoteName, spellingCost } from '../spelling';
 import { transposeNoteName } from '../transpose';
+import { chordTemplate, type ChordTemplate } from '../chord-symbol';
 import type { ParsedAbc } from './parse';
+
+export { chordTemplate, type ChordTemplate };
 
 export interface EmitPlan {
 	/** The new key for each entry of `tune.keys`. */
@@ -143,6 +146,8 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 				}
 				// An unchanged note keeps its own text (`b,,` stays `b,,`, not `B,`).
 				const q = head.pitch;
+				if (t.kind !== 'note')
+					throw new RangeError('A note head points at a token that is no note');
 				if (
 					acc === t.accidental &&
 					q.letter === p.letter &&
@@ -150,7 +155,7 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 					q.octave === p.octave
 				) {
 					out += t.text;
-				} else out += acc + abcLetter(p) + (t.length as string);
+				} else out += acc + abcLetter(p) + t.length;
 				break;
 			}
 			case Step.Chord:
@@ -174,46 +179,6 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 		}
 	}
 	return out;
-}
-
-const ROOT_RE = /(^|[\s/(,|])([A-G])(##|bb|#|b|♯|♭)?/g;
-const ALT_TEXT: Record<string, number> = { '': 0, '#': 1, '##': 2, b: -1, bb: -2, '♯': 1, '♭': -1 };
-
-/** A chord symbol cut at its roots: text pieces around each root or bass note. */
-export interface ChordTemplate {
-	/** One more piece than roots: pieces[0] root[0] pieces[1] root[1] … */
-	pieces: string[];
-	roots: SpelledNote[];
-	/** Index in `roots` of a bass note after a slash at the end, or -1. */
-	bass: number;
-}
-
-const templates = new Map<string, ChordTemplate>();
-
-/**
- * Cut a chord symbol at its roots once; transposing it is then string joins (no regex per variant).
- * @example chordTemplate('Bb7/D') // { pieces: ['', '7/', ''], roots: [Bb, D], bass: 1 }
- */
-export function chordTemplate(symbol: string): ChordTemplate {
-	let t = templates.get(symbol);
-	if (t) return t;
-	const pieces: string[] = [];
-	const roots: SpelledNote[] = [];
-	let last = 0;
-	let bass = -1;
-	for (const m of symbol.matchAll(ROOT_RE)) {
-		const at = (m.index ?? 0) + m[1].length;
-		pieces.push(symbol.slice(last, at));
-		roots.push({ letter: 'CDEFGAB'.indexOf(m[2]), alt: ALT_TEXT[m[3] ?? ''] });
-		last = at + m[2].length + (m[3]?.length ?? 0);
-		if (m[1] === '/' && /^\s*\)?\s*$/.test(symbol.slice(last))) bass = roots.length - 1;
-	}
-	pieces.push(symbol.slice(last));
-	t = { pieces, roots, bass };
-	// Licks hold a handful of symbols; a long-running server must not keep every one it has seen.
-	if (templates.size > 2000) templates.clear();
-	templates.set(symbol, t);
-	return t;
 }
 
 /**

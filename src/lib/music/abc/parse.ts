@@ -32,6 +32,8 @@ export interface NoteHead {
 
 export interface ParsedChordSymbol {
 	token: number;
+	/** The symbol as written, without quotes. */
+	text: string;
 	context: ChordContext | null;
 }
 
@@ -158,6 +160,10 @@ function readTokens(
 	const elements: Element[] = [];
 	const chordSymbols: ParsedChordSymbol[] = [];
 	let propagation: Propagation = 'pitch';
+	// Whether the lick says how far its accidentals reach; when it does not, a note that reads
+	// differently by letter and by letter-and-octave gets a warning.
+	let propagationDeclared = false;
+	let readingWarned = false;
 	let meter = '';
 	let headerMeter = '';
 	let tempo: number | null = null;
@@ -166,8 +172,12 @@ function readTokens(
 	let inBody = false;
 	let currentKey = -1;
 	let sawKey = false;
-	// Bar-scoped accidentals: by letter ('pitch') or letter and octave ('octave').
-	let barAlts = new Map<number, number>();
+	// Bar-scoped accidentals, both ways: by letter ('pitch') and by letter and octave ('octave').
+	let byLetter = new Map<number, number>();
+	let byOctave = new Map<number, number>();
+	// Alterations tied into the next note, by letter and octave: `^G-|G` is one G♯ (a tie carries
+	// its accidental over the bar line, for the tied note only; engraving practice).
+	const tieCarry = new Map<number, number>();
 	let chordIndex = -1;
 	let inChord: Element | null = null;
 	let inGrace = false;
@@ -186,6 +196,11 @@ function readTokens(
 			pendingBroken = null;
 		}
 		elements.push(el);
+		tieCarry.clear();
+		for (const hi of el.ties) {
+			const p = heads[hi].pitch;
+			tieCarry.set(p.letter + 7 * (p.octave + 10), p.alt);
+		}
 	};
 
 	for (let ti = 0; ti < tokens.length; ti++) {
@@ -193,13 +208,13 @@ function readTokens(
 		switch (t.kind) {
 			case 'field':
 			case 'inline-field': {
-				const name = t.name as string;
-				const value = t.value as string;
+				const { name, value } = t;
 				if (t.kind === 'field' && name === 'X') {
 					inBody = false;
 					headerMeter = '';
 					headerUnit = null;
-					barAlts = new Map();
+					byLetter = new Map();
+					byOctave = new Map();
 					chordIndex = -1;
 				}
 				if (!KNOWN_FIELDS.includes(name)) {
@@ -260,10 +275,12 @@ function readTokens(
 				break;
 			}
 			case 'directive': {
-				const m = /^propagate-accidentals\s+(\S+)/.exec(t.value ?? '');
+				const m = /^propagate-accidentals\s+(\S+)/.exec(t.value);
 				if (m) {
-					if (m[1] === 'pitch' || m[1] === 'octave' || m[1] === 'not') propagation = m[1];
-					else
+					if (m[1] === 'pitch' || m[1] === 'octave' || m[1] === 'not') {
+						propagation = m[1];
+						propagationDeclared = true;
+					} else
 						warnings.push({
 							code: 'unknown-directive',
 							message: `Line ${t.line}: %%propagate-accidentals takes not, octave or pitch; “${m[1]}” is ignored.`
@@ -275,13 +292,15 @@ function readTokens(
 				inBody = false;
 				break;
 			case 'bar':
-				barAlts = new Map();
+				byLetter = new Map();
+				byOctave = new Map();
 				if (inChord) return fail('A bar line cannot stand inside a chord [ ].', t);
 				break;
 			case 'chord-symbol':
 				chordSymbols.push({
 					token: ti,
-					context: readChord ? readChord(t.value as string) : null
+					text: t.value,
+					context: readChord ? readChord(t.value) : null
 				});
 				chordIndex = chordSymbols.length - 1;
 				break;
@@ -295,10 +314,11 @@ function readTokens(
 				inChord = { heads: [], base: 0, factor: 1, chord: chordIndex, ties: [], rest: false };
 				break;
 			case 'chord-close': {
-				const el = inChord as Element;
+				const el = inChord;
+				if (!el) return fail('This ] closes no chord: there is no [ before it.', t);
 				inChord = null;
 				if (el.heads.length === 0) return fail('This chord [ ] holds no notes.', t);
-				const mult = lengthMultiplier(t.length ?? '');
+				const mult = lengthMultiplier(t.length);
 				if (mult === null) return fail(`“${t.length}” is not a note length.`, t);
 				el.base *= mult;
 				if (tokens[ti + 1]?.kind === 'tie') el.ties.push(...el.heads);
@@ -310,26 +330,37 @@ function readTokens(
 				if (currentKey < 0 || unitLength === null) {
 					return fail('Music starts before the K: line; write a K: field first.', t);
 				}
-				const mult = lengthMultiplier(t.length ?? '');
+				const mult = lengthMultiplier(t.length);
 				if (mult === null) {
 					return fail(
 						`“${t.length}” is not a note length we read: write 2, /2, 3/2 or /, from /128 to 128 units.`,
 						t
 					);
 				}
-				const letterText = t.letter as string;
+				const letterText = t.letter;
 				const letter = LETTERS.indexOf(letterText.toUpperCase());
-				const marks = t.octave as string;
+				const marks = t.octave;
 				let octave = letterText === letterText.toLowerCase() ? 5 : 4;
 				for (const ch of marks) octave += ch === "'" ? 1 : -1;
-				const acc = t.accidental as string;
-				const barKey = propagation === 'octave' ? letter + 7 * (octave + 10) : letter;
+				const acc = t.accidental;
+				const slot = letter + 7 * (octave + 10);
+				const sig = keys[currentKey].key.accidentals[letter];
 				let alt: number;
+				const carried = inGrace ? undefined : tieCarry.get(slot);
 				if (acc !== '') {
 					alt = ACCIDENTAL_ALT[acc];
-					if (propagation !== 'not') barAlts.set(barKey, alt);
+					byLetter.set(letter, alt);
+					byOctave.set(slot, alt);
+				} else if (carried !== undefined) {
+					alt = carried;
 				} else {
-					alt = barAlts.get(barKey) ?? keys[currentKey].key.accidentals[letter];
+					const asPitch = byLetter.get(letter) ?? sig;
+					const asOctave = byOctave.get(slot) ?? sig;
+					alt = propagation === 'pitch' ? asPitch : propagation === 'octave' ? asOctave : sig;
+					if (asPitch !== asOctave && !propagationDeclared && !readingWarned) {
+						readingWarned = true;
+						warnings.push(readingWarning(t, letter, octave, asPitch, asOctave));
+					}
 				}
 				const pitch = { letter, alt, octave };
 				const head: NoteHead = {
@@ -344,7 +375,7 @@ function readTokens(
 				heads.push(head);
 				const hi = heads.length - 1;
 				if (inGrace) break;
-				const base = (unitLength as number) * mult;
+				const base = unitLength * mult;
 				const tied = tokens[ti + 1]?.kind === 'tie';
 				if (inChord) {
 					if (inChord.heads.length === 0) inChord.base = base;
@@ -374,7 +405,7 @@ function readTokens(
 					}
 					base = bars * (meterLength(meter) ?? 1);
 				} else {
-					const mult = lengthMultiplier(t.length ?? '');
+					const mult = lengthMultiplier(t.length);
 					if (mult === null) return fail(`“${t.length}” is not a rest length.`, t);
 					base = unitLength * mult;
 				}
@@ -383,7 +414,7 @@ function readTokens(
 				break;
 			}
 			case 'tuplet': {
-				const [p, q, r] = t.tuplet as [number, number, number];
+				const [p, q, r] = t.tuplet;
 				tuplet = { factor: (q || tupletQ(p, meter)) / p, left: r || p };
 				break;
 			}
@@ -422,8 +453,12 @@ function readTokens(
 		});
 	}
 	if (pendingBroken) {
-		const t = tokens.findLast((x) => x.kind === 'broken-rhythm') as Token;
-		return fail(`The broken rhythm ${t.text} needs a note after it, as in A>B.`, t);
+		const t = tokens.findLast((x) => x.kind === 'broken-rhythm');
+		const text = t?.text ?? '>';
+		return fail(
+			`The broken rhythm ${text} needs a note after it, as in A>B.`,
+			t ?? { line: 1, column: 1 }
+		);
 	}
 
 	// Second pass: onsets, tie merging, sounding notes.
@@ -480,6 +515,30 @@ function readTokens(
 			propagation,
 			warnings
 		}
+	};
+}
+
+/**
+ * The warning for a note whose pitch depends on how far an accidental reaches (abc 2.1 §11.3):
+ * the standard's default reads it by letter in every octave; engraved music (and many abc
+ * programs) by letter in its own octave. The lick is read the standard's way.
+ */
+function readingWarning(
+	t: Token,
+	letter: number,
+	octave: number,
+	asPitch: number,
+	asOctave: number
+): MusicWarning {
+	const name = (alt: number) => LETTERS[letter] + (alt > 0 ? '♯'.repeat(alt) : '♭'.repeat(-alt));
+	const text = t.text.trim();
+	const fix = (alt: number) =>
+		(['__', '_', '=', '^', '^^'][alt + 2] ?? '') + text.replace(/^[_=^]+/, '');
+	return {
+		code: 'accidental-reading',
+		message:
+			`Line ${t.line}, column ${t.column}: “${text}” sounds ${name(asPitch)}${octave} if an accidental holds for its letter in every octave of the bar (abc 2.1 §11.3, the standard's default, which is how it is read here) ` +
+			`but ${name(asOctave)}${octave} if it holds in its own octave only, as in engraved music. Write ${fix(asPitch)} or ${fix(asOctave)} to say which you mean.`
 	};
 }
 

@@ -15,35 +15,58 @@
 /** Largest input accepted, in bytes of UTF-8 (20 KB). */
 export const MAX_ABC_BYTES = 20 * 1024;
 
-export type TokenKind =
-	| 'field' // a whole header or body field line without its newline: `K:Bb`
-	| 'inline-field' // `[K:Eb]` inside music
-	| 'directive' // `%%propagate-accidentals octave`
+/** Kinds of token that carry nothing beyond their text. */
+type PlainKind =
 	| 'comment' // `% ...` to the end of a line
 	| 'newline'
 	| 'blank' // an empty line (ends a tune, abc 2.1 §2.2)
 	| 'text' // free text outside a tune
 	| 'space'
 	| 'continuation' // a trailing `\` joining music lines (§2.2.6)
-	| 'note'
-	| 'rest'
 	| 'chord-open' // `[`
-	| 'chord-close' // `]` with any chord length after it: `]2`
-	| 'chord-symbol' // `"Bb7"` (§4.18)
-	| 'annotation' // `"^solo"` (§4.19)
 	| 'bar' // `|`, `||`, `|]`, `[|`, `|:`, `:|`, `::`, `|1`, `:|2`, `[2`
 	| 'tie' // `-`
 	| 'slur-open'
 	| 'slur-close'
-	| 'tuplet' // `(3`, `(3:2:3`
 	| 'grace-open' // `{` or `{/`
 	| 'grace-close'
-	| 'decoration' // `!trill!`, `+trill+`, `.`, `~`, `T` …
 	| 'broken-rhythm' // `>`, `>>`, `<`
 	| 'ignored'; // `y`, backquote, `$`, and the reserved `# * ; ? @` (§8.1)
 
-export interface Token {
-	kind: TokenKind;
+/** What a token is, by kind, with the parts that kind carries. */
+export type TokenData =
+	| {
+			kind: 'note';
+			/** Accidental text (`^`, `__`, `=` or ''). */
+			accidental: string;
+			/** The letter as written (`C`, `c`). */
+			letter: string;
+			/** The octave marks (`''`, `,,`). */
+			octave: string;
+			/** The length text (`3/2`, `/`, ''). */
+			length: string;
+	  }
+	| { kind: 'rest'; /** `z`, `x`, `Z` or `X`. */ letter: string; length: string }
+	| { kind: 'chord-close'; /** `]` with any chord length after it: `]2`. */ length: string }
+	| { kind: 'field'; /** The field letter. */ name: string; value: string }
+	| { kind: 'inline-field'; /** `[K:Eb]` inside music. */ name: string; value: string }
+	| { kind: 'directive'; /** `%%propagate-accidentals octave` without `%%`. */ value: string }
+	| { kind: 'chord-symbol'; /** `"Bb7"` without quotes (§4.18). */ value: string }
+	| { kind: 'annotation'; /** `"^solo"` without quotes (§4.19). */ value: string }
+	| {
+			kind: 'decoration';
+			/** `!trill!`, `+trill+`, `.`, `~`, `T` … without delimiters. */ value: string;
+	  }
+	| {
+			kind: 'tuplet';
+			/** `(3`, `(3:2:3`: p, q and r (0 when not given). */ tuplet: [number, number, number];
+	  }
+	| { kind: PlainKind };
+
+export type TokenKind = TokenData['kind'];
+
+/** A token with its exact source text and where it stands. */
+export type Token = TokenData & {
 	/** The exact source text of the token. */
 	text: string;
 	/** Offset of the first character in the input (UTF-16 units). */
@@ -51,21 +74,7 @@ export interface Token {
 	/** 1-based line and column of the first character. */
 	line: number;
 	column: number;
-	/** Note: accidental text (`^`, `__`, `=` or ''). */
-	accidental?: string;
-	/** Note or rest: the letter as written (`C`, `c`, `z`, `Z`). */
-	letter?: string;
-	/** Note: the octave marks (`''`, `,,`). */
-	octave?: string;
-	/** Note, rest, chord close: the length text (`3/2`, `/`, ''). */
-	length?: string;
-	/** Field, inline field: the field letter. */
-	name?: string;
-	/** Field, inline field, chord symbol, annotation, decoration, directive: the content. */
-	value?: string;
-	/** Tuplet: p, q (0 when not given) and r (0 when not given). */
-	tuplet?: [number, number, number];
-}
+};
 
 export interface AbcError {
 	/** A sentence a teacher understands. */
@@ -114,26 +123,26 @@ export function tokenize(input: string): TokenizeResult {
 		const lineStart = offset;
 		const contentEnd = end > offset && input[end - 1] === '\r' ? end - 1 : end;
 		const line = input.slice(lineStart, contentEnd);
-		const push = (kind: TokenKind, from: number, to: number, extra?: Partial<Token>): Token => {
+		const push = (data: TokenData, from: number, to: number): Token => {
 			const t: Token = {
-				kind,
+				...data,
 				text: input.slice(lineStart + from, lineStart + to),
 				offset: lineStart + from,
 				line: lineNo,
-				column: from + 1,
-				...extra
+				column: from + 1
 			};
 			tokens.push(t);
 			return t;
 		};
 		const fieldMatch = /^([A-Za-z+]):/.exec(line);
 		if (line.trim() === '') {
-			if (line.length > 0 || state !== 'free' || tokens.length > 0) push('blank', 0, line.length);
+			if (line.length > 0 || state !== 'free' || tokens.length > 0)
+				push({ kind: 'blank' }, 0, line.length);
 			if (state === 'body' || state === 'header') state = 'free';
 		} else if (line.startsWith('%%')) {
-			push('directive', 0, line.length, { value: line.slice(2).trim() });
+			push({ kind: 'directive', value: line.slice(2).trim() }, 0, line.length);
 		} else if (line.startsWith('%')) {
-			push('comment', 0, line.length);
+			push({ kind: 'comment' }, 0, line.length);
 		} else if (
 			fieldMatch &&
 			(state !== 'body' || BODY_FIELDS.includes(fieldMatch[1]) || fieldMatch[1] === '+')
@@ -144,8 +153,8 @@ export function tokenize(input: string): TokenizeResult {
 			// A field value ends at a `%` comment (abc 2.1 §2.2.5), except in the text fields.
 			const commentAt = findComment(line, 2);
 			const valueEnd = commentAt < 0 ? line.length : commentAt;
-			push('field', 0, valueEnd, { name, value: line.slice(2, valueEnd) });
-			if (commentAt >= 0) push('comment', commentAt, line.length);
+			push({ kind: 'field', name, value: line.slice(2, valueEnd) }, 0, valueEnd);
+			if (commentAt >= 0) push({ kind: 'comment' }, commentAt, line.length);
 			if (name === 'K' && state === 'header') {
 				state = 'body';
 				sawTune = true;
@@ -174,7 +183,7 @@ export function tokenize(input: string): TokenizeResult {
 					column: 1
 				});
 			}
-			push('text', 0, line.length);
+			push({ kind: 'text' }, 0, line.length);
 		}
 		if (end < input.length) {
 			const t: Token = {
@@ -199,7 +208,7 @@ function findComment(line: string, from: number): number {
 	return -1;
 }
 
-type Push = (kind: TokenKind, from: number, to: number, extra?: Partial<Token>) => Token;
+type Push = (data: TokenData, from: number, to: number) => Token;
 
 const NOTE_RE = /(\^\^|\^|__|_|=)?([A-Ga-g])([',]*)(\d*\/*\d*)/y;
 const REST_RE = /([zx])(\d*\/*\d*)|([ZX])(\d*)/y;
@@ -225,19 +234,19 @@ function tokenizeMusicLine(
 		if (c === ' ' || c === '\t') {
 			let j = i;
 			while (j < line.length && (line[j] === ' ' || line[j] === '\t')) j++;
-			push('space', i, j);
+			push({ kind: 'space' }, i, j);
 			i = j;
 			continue;
 		}
 		if (c === '%') {
-			push('comment', i, line.length);
+			push({ kind: 'comment' }, i, line.length);
 			i = line.length;
 			continue;
 		}
 		if (c === '\\') {
 			const after = line.slice(i + 1);
 			if (after.trim() === '' || after.trimStart().startsWith('%')) {
-				push('continuation', i, i + 1);
+				push({ kind: 'continuation' }, i, i + 1);
 				i++;
 				continue;
 			}
@@ -252,8 +261,10 @@ function tokenizeMusicLine(
 				);
 			}
 			const value = line.slice(i + 1, close);
-			const kind = /^[\^_<>@]/.test(value) ? 'annotation' : 'chord-symbol';
-			push(kind, i, close + 1, { value });
+			const kind: 'annotation' | 'chord-symbol' = /^[\^_<>@]/.test(value)
+				? 'annotation'
+				: 'chord-symbol';
+			push({ kind, value }, i, close + 1);
 			i = close + 1;
 			continue;
 		}
@@ -265,7 +276,7 @@ function tokenizeMusicLine(
 					i
 				);
 			}
-			push('decoration', i, close + 1, { value: line.slice(i + 1, close) });
+			push({ kind: 'decoration', value: line.slice(i + 1, close) }, i, close + 1);
 			i = close + 1;
 			continue;
 		}
@@ -280,10 +291,11 @@ function tokenizeMusicLine(
 						i
 					);
 				}
-				push('inline-field', i, close + 1, {
-					name: line[i + 1],
-					value: line.slice(i + 3, close)
-				});
+				push(
+					{ kind: 'inline-field', name: line[i + 1], value: line.slice(i + 3, close) },
+					i,
+					close + 1
+				);
 				i = close + 1;
 				continue;
 			}
@@ -291,7 +303,7 @@ function tokenizeMusicLine(
 				BAR_RE.lastIndex = i;
 				const m = BAR_RE.exec(line);
 				if (m && chordOpen === null) {
-					push('bar', i, i + m[0].length);
+					push({ kind: 'bar' }, i, i + m[0].length);
 					i += m[0].length;
 					continue;
 				}
@@ -303,7 +315,7 @@ function tokenizeMusicLine(
 				);
 			}
 			chordOpen = i;
-			push('chord-open', i, i + 1);
+			push({ kind: 'chord-open' }, i, i + 1);
 			i++;
 			continue;
 		}
@@ -314,7 +326,7 @@ function tokenizeMusicLine(
 			const len = /\d*\/*\d*/y;
 			len.lastIndex = i + 1;
 			const length = len.exec(line)?.[0] ?? '';
-			push('chord-close', i, i + 1 + length.length, { length });
+			push({ kind: 'chord-close', length }, i, i + 1 + length.length);
 			chordOpen = null;
 			i += 1 + length.length;
 			continue;
@@ -324,7 +336,7 @@ function tokenizeMusicLine(
 			BAR_RE.lastIndex = i;
 			const m = BAR_RE.exec(line);
 			if (m) {
-				push('bar', i, i + m[0].length);
+				push({ kind: 'bar' }, i, i + m[0].length);
 				i += m[0].length;
 				continue;
 			}
@@ -332,12 +344,17 @@ function tokenizeMusicLine(
 		NOTE_RE.lastIndex = i;
 		const note = NOTE_RE.exec(line);
 		if (note) {
-			push('note', i, i + note[0].length, {
-				accidental: note[1] ?? '',
-				letter: note[2],
-				octave: note[3],
-				length: note[4]
-			});
+			push(
+				{
+					kind: 'note',
+					accidental: note[1] ?? '',
+					letter: note[2],
+					octave: note[3],
+					length: note[4]
+				},
+				i,
+				i + note[0].length
+			);
 			i += note[0].length;
 			continue;
 		}
@@ -356,10 +373,11 @@ function tokenizeMusicLine(
 		REST_RE.lastIndex = i;
 		const rest = REST_RE.exec(line);
 		if (rest) {
-			push('rest', i, i + rest[0].length, {
-				letter: rest[1] ?? rest[3],
-				length: rest[2] ?? rest[4]
-			});
+			push(
+				{ kind: 'rest', letter: rest[1] ?? rest[3], length: rest[2] ?? rest[4] },
+				i,
+				i + rest[0].length
+			);
 			i += rest[0].length;
 			continue;
 		}
@@ -374,18 +392,20 @@ function tokenizeMusicLine(
 						i
 					);
 				}
-				push('tuplet', i, i + t[0].length, {
-					tuplet: [p, Number(t[2] || 0), Number(t[3] || 0)]
-				});
+				push(
+					{ kind: 'tuplet', tuplet: [p, Number(t[2] || 0), Number(t[3] || 0)] },
+					i,
+					i + t[0].length
+				);
 				i += t[0].length;
 				continue;
 			}
-			push('slur-open', i, i + 1);
+			push({ kind: 'slur-open' }, i, i + 1);
 			i++;
 			continue;
 		}
 		if (c === ')') {
-			push('slur-close', i, i + 1);
+			push({ kind: 'slur-close' }, i, i + 1);
 			i++;
 			continue;
 		}
@@ -394,7 +414,7 @@ function tokenizeMusicLine(
 				return err('Grace notes cannot be nested: close the first { with }.', i);
 			graceOpen = i;
 			const to = line[i + 1] === '/' ? i + 2 : i + 1;
-			push('grace-open', i, to);
+			push({ kind: 'grace-open' }, i, to);
 			i = to;
 			continue;
 		}
@@ -402,24 +422,24 @@ function tokenizeMusicLine(
 			if (graceOpen === null)
 				return err('This } closes no grace notes: there is no { before it.', i);
 			graceOpen = null;
-			push('grace-close', i, i + 1);
+			push({ kind: 'grace-close' }, i, i + 1);
 			i++;
 			continue;
 		}
 		if (c === '-') {
-			push('tie', i, i + 1);
+			push({ kind: 'tie' }, i, i + 1);
 			i++;
 			continue;
 		}
 		if (c === '>' || c === '<') {
 			let j = i;
 			while (j < line.length && line[j] === c && j - i < 3) j++;
-			push('broken-rhythm', i, j);
+			push({ kind: 'broken-rhythm' }, i, j);
 			i = j;
 			continue;
 		}
 		if (DECORATION_CHARS.includes(c)) {
-			push('decoration', i, i + 1, { value: c });
+			push({ kind: 'decoration', value: c }, i, i + 1);
 			i++;
 			continue;
 		}
@@ -429,12 +449,12 @@ function tokenizeMusicLine(
 				line: lineNo,
 				column: i + 1
 			});
-			push('decoration', i, i + 1, { value: c });
+			push({ kind: 'decoration', value: c }, i, i + 1);
 			i++;
 			continue;
 		}
 		if (c === 'y' || c === '`' || c === '$') {
-			push('ignored', i, i + 1);
+			push({ kind: 'ignored' }, i, i + 1);
 			i++;
 			continue;
 		}
@@ -444,7 +464,7 @@ function tokenizeMusicLine(
 				line: lineNo,
 				column: i + 1
 			});
-			push('ignored', i, i + 1);
+			push({ kind: 'ignored' }, i, i + 1);
 			i++;
 			continue;
 		}

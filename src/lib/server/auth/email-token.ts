@@ -3,6 +3,7 @@ import { getConfig } from '../config';
 import { getDb } from '../db/index';
 import { EmailToken, User, type TokenPurpose } from '../db/models/index';
 import { createToken, hashToken } from './tokens';
+import { LINK_LIFETIME_MS } from '../../forms/account';
 
 /**
  * Single-use links sent by mail (confirm an address, reset a password). Only the newest link of
@@ -11,11 +12,8 @@ import { createToken, hashToken } from './tokens';
  * on PostgreSQL and with several processes, not only in this one.
  */
 
-/** How long a mailed link works. */
-export const TOKEN_LIFETIME_MS: Record<TokenPurpose, number> = {
-	verify: 24 * 60 * 60 * 1000,
-	reset: 60 * 60 * 1000
-};
+/** How long a mailed link works (the pages and mails say the same, from the same constant). */
+export const TOKEN_LIFETIME_MS: Record<TokenPurpose, number> = LINK_LIFETIME_MS;
 
 export type TokenProblem = { ok: false; reason: 'bad-token'; message: string };
 
@@ -84,16 +82,18 @@ function tokenProblem(row: EmailToken | null, now: Date): TokenProblem | null {
 }
 
 /**
- * Why a token cannot be used, or null when it could be right now; reads and marks nothing. For
- * callers with expensive work to do before `consumeToken`, which decides.
+ * The owner of a token that could be used right now, or why it cannot; reads and marks nothing.
+ * For callers with work to do before `consumeToken` decides (a password to check against its
+ * owner and hash), and for a page that should say at once that its link is spent.
  */
 export async function checkToken(
 	token: unknown,
 	purpose: TokenPurpose,
 	now: Date
-): Promise<TokenProblem | null> {
+): Promise<{ ok: true; userId: string } | TokenProblem> {
 	if (!isTokenShaped(token)) return badToken('This link is incomplete or malformed.');
-	return tokenProblem(await EmailToken.findOne({ where: { id: hashToken(token), purpose } }), now);
+	const row = await EmailToken.findOne({ where: { id: hashToken(token), purpose } });
+	return tokenProblem(row, now) ?? { ok: true, userId: (row as EmailToken).userId };
 }
 
 /**

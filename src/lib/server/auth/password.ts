@@ -4,19 +4,27 @@ import { getDb } from '../db/index';
 import { Session, User } from '../db/models/index';
 import { changePasswordSchema, normalizeEmail, signInSchema } from '../../forms/account';
 import { parseFirst } from '../../forms/parse';
+import { getConfig } from '../config';
+import { sendMail } from '../mail/index';
+import { passwordChangedMail } from '../mail/templates/index';
+import { trySend } from './email-token';
+import { checkNewPassword } from './password-strength';
 import { createToken } from './tokens';
+import { nameForMail } from './verification';
 import { invalid, toSessionUser, type Invalid, type SessionUser } from './user';
 
 export {
-	checkPasswordStrength,
+	checkPasswordLength,
 	MAX_PASSWORD_LENGTH,
 	MIN_PASSWORD_LENGTH,
 	type PasswordCheck
 } from '../../forms/account';
+export { checkNewPassword } from './password-strength';
 
 /**
- * Passwords: hashing, checking one at sign-in, changing one. The strength rule itself is pure
- * (`$lib/forms/account.ts`), so the form shows the same rule the server applies.
+ * Passwords: hashing, checking one at sign-in, changing one. The rule's text and its length
+ * part are pure (`$lib/forms/account.ts`), so the form shows the rule the server applies; how
+ * hard a password is to guess is `password-strength.ts`.
  *
  * argon2id with the OWASP-recommended minimum (19 MiB, 2 passes, 1 lane). `@node-rs/argon2`
  * defaults to argon2id; the parameters are written out so the stored hashes stay readable.
@@ -75,17 +83,25 @@ export async function signIn(input: SignInInput): Promise<SignInResult> {
 }
 
 export type ChangePasswordResult =
-	{ ok: true } | Invalid | { ok: false; reason: 'not-found'; message: string };
+	| { ok: true; mailSent: boolean }
+	| Invalid
+	| { ok: false; reason: 'not-found' | 'conflict'; message: string };
 
 /**
- * Change a password after checking the current one. Every other session of the account ends;
- * the one given as `keepSessionId` (stored id, `locals.session.id`) stays.
- * @example await changePassword(user.id, { currentPassword, password, confirm: password }, session.id) // → { ok: true }
+ * Change a password after checking the current one. The check and the write are one
+ * compare-and-set on the stored hash (`UPDATE … WHERE id = ? AND password_hash = <the hash the
+ * current password was checked against>`), so of several changes sent at once from the same
+ * current password exactly one takes effect and the others are refused, on SQLite and
+ * PostgreSQL alike, with one process or several. Every other session of the account ends; the
+ * one given as `keepSessionId` (stored id, `locals.session.id`) stays. The owner gets a mail
+ * saying so, with what to do if it was not them.
+ * @example await changePassword(user.id, { currentPassword, password, confirm: password }, session.id) // → { ok: true, mailSent: true }
  */
 export async function changePassword(
 	userId: string,
 	input: { currentPassword?: unknown; password?: unknown; confirm?: unknown },
-	keepSessionId?: string
+	keepSessionId?: string,
+	now = new Date()
 ): Promise<ChangePasswordResult> {
 	const currentPassword = input.currentPassword;
 	if (typeof currentPassword !== 'string' || currentPassword.length === 0) {
@@ -93,7 +109,8 @@ export async function changePassword(
 	}
 	const user = await User.findByPk(userId);
 	if (!user) return { ok: false, reason: 'not-found', message: 'This account no longer exists.' };
-	if (!(await verifyPassword(user.passwordHash, currentPassword))) {
+	const checkedHash = user.passwordHash;
+	if (!(await verifyPassword(checkedHash, currentPassword))) {
 		return invalid('currentPassword', 'That is not your current password.');
 	}
 	const read = parseFirst(changePasswordSchema, {
@@ -102,13 +119,47 @@ export async function changePassword(
 		confirm: input.confirm ?? input.password
 	});
 	if (!read.ok) return invalid(read.field, read.message);
-	user.passwordHash = await hashPassword(read.value.password);
-	await getDb().transaction(async (transaction) => {
-		await user.save({ transaction });
+	const strength = await checkNewPassword(read.value.password, user);
+	if (!strength.ok) return invalid('password', strength.message);
+	const passwordHash = await hashPassword(read.value.password);
+	const changed = await getDb().transaction(async (transaction) => {
+		const [count] = await User.update(
+			{ passwordHash },
+			{ where: { id: userId, passwordHash: checkedHash }, transaction }
+		);
+		if (count !== 1) return false;
 		await Session.destroy({
 			where: keepSessionId ? { userId, id: { [Op.ne]: keepSessionId } } : { userId },
 			transaction
 		});
+		return true;
 	});
-	return { ok: true };
+	if (!changed) {
+		return {
+			ok: false,
+			reason: 'conflict',
+			message:
+				'Your password was changed by another request at the same moment, so this change was not made. Sign in again with the password you chose there, or ask for a reset link.'
+		};
+	}
+	const mailSent = await mailPasswordChanged(user, 'changed', now);
+	return { ok: true, mailSent };
+}
+
+/**
+ * Tell the owner their password was changed or reset, with how to react if it was not them.
+ * False when the mail could not be sent (the change stands).
+ */
+export function mailPasswordChanged(
+	user: { email: string; name: string; emailVerifiedAt?: Date | null },
+	how: 'changed' | 'reset',
+	at: Date
+): Promise<boolean> {
+	const resetUrl = `${getConfig().baseUrl}/forgot-password`;
+	return trySend(() =>
+		sendMail({
+			to: user.email,
+			...passwordChangedMail({ name: nameForMail(user), how, at, resetUrl })
+		})
+	);
 }

@@ -12,7 +12,9 @@ import {
 	trySend,
 	type TokenProblem
 } from './email-token';
-import { hashPassword } from './password';
+import { hashPassword, mailPasswordChanged } from './password';
+import { checkNewPassword } from './password-strength';
+import { nameForMail } from './verification';
 import { invalid, type Invalid } from './user';
 
 /** Resetting a forgotten password through a mailed link. */
@@ -23,7 +25,7 @@ async function mailResetLink(email: string, now: Date): Promise<void> {
 	if (!user) return;
 	const token = await issueToken(user.id, 'reset', now);
 	const url = linkFor('/reset-password', token);
-	await sendMail({ to: user.email, ...passwordResetMail({ name: user.name, url }) });
+	await sendMail({ to: user.email, ...passwordResetMail({ name: nameForMail(user), url }) });
 }
 
 /**
@@ -56,12 +58,14 @@ export function queuePasswordReset(emailInput: unknown): { ok: true } | Invalid 
 	return { ok: true };
 }
 
-export type ResetPasswordResult = { ok: true; userId: string } | Invalid | TokenProblem;
+export type ResetPasswordResult =
+	{ ok: true; userId: string; mailSent: boolean } | Invalid | TokenProblem;
 
 /**
  * Set a new password from a reset link. Every session of the account ends, and the address
- * counts as confirmed (the link reached its mailbox). `confirm`, when given, must match.
- * @example await resetPassword(token, 'comping-chords-9') // → { ok: true, userId: '…' }
+ * counts as confirmed (the link reached its mailbox). `confirm`, when given, must match. The
+ * owner gets a mail saying the password was reset, with what to do if it was not them.
+ * @example await resetPassword(token, 'comping-chords-9') // → { ok: true, userId: '…', mailSent: true }
  */
 export async function resetPassword(
 	token: unknown,
@@ -72,17 +76,25 @@ export async function resetPassword(
 	const read = parseFirst(resetPasswordSchema, { token: '', password, confirm });
 	if (!read.ok) return invalid(read.field, read.message);
 	// The form is public and not rate limited: a made-up token is turned away before it can cost
-	// an argon2 hash (19 MiB, tens of milliseconds). The hash stays outside the transaction, which
-	// would otherwise hold SQLite's write lock while it runs.
-	const problem = await checkToken(token, 'reset', now);
-	if (problem) return problem;
+	// a strength check or an argon2 hash (19 MiB, tens of milliseconds). The hash stays outside
+	// the transaction, which would otherwise hold SQLite's write lock while it runs.
+	const live = await checkToken(token, 'reset', now);
+	if (!live.ok) return live;
+	const owner = await User.findByPk(live.userId);
+	const strength = await checkNewPassword(read.value.password, owner ?? {});
+	if (!strength.ok) return invalid('password', strength.message);
 	const passwordHash = await hashPassword(read.value.password);
-	return consumeToken(token, 'reset', now, async (userId, transaction) => {
+	let changed: User | null = null;
+	const result = await consumeToken(token, 'reset', now, async (userId, transaction) => {
 		const user = await User.findByPk(userId, { transaction });
 		if (!user) return;
 		user.passwordHash = passwordHash;
 		user.emailVerifiedAt ??= now;
 		await user.save({ transaction });
 		await Session.destroy({ where: { userId }, transaction });
+		changed = user;
 	});
+	if (!result.ok) return result;
+	const mailSent = changed ? await mailPasswordChanged(changed, 'reset', now) : false;
+	return { ...result, mailSent };
 }

@@ -14,6 +14,7 @@ import { parseFirst } from '../../forms/parse';
 import type { UserSettings } from '../../practice/settings';
 import { settingsOf } from '../study/settings';
 import { hashPassword, verifyPassword } from './password';
+import { checkNewPassword } from './password-strength';
 import { sendVerification } from './verification';
 
 /**
@@ -94,6 +95,10 @@ export type SignUpResult =
 export async function signUp(input: SignUpInput, now = new Date()): Promise<SignUpResult> {
 	const read = parseFirst(signUpSchema, input);
 	if (!read.ok) return invalid(read.field, read.message);
+	const email = normalizeEmail(read.value.email) as string;
+	const name = normalizeName(read.value.name) as string;
+	const strength = await checkNewPassword(read.value.password, { name, email });
+	if (!strength.ok) return invalid('password', strength.message);
 	const taken = {
 		ok: false,
 		reason: 'email-taken',
@@ -103,8 +108,8 @@ export async function signUp(input: SignUpInput, now = new Date()): Promise<Sign
 	let user: User;
 	try {
 		user = await UserModel.create({
-			email: normalizeEmail(read.value.email) as string,
-			name: normalizeName(read.value.name) as string,
+			email,
+			name,
 			role: read.value.role,
 			passwordHash: await hashPassword(read.value.password)
 		});

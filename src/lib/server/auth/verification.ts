@@ -6,14 +6,22 @@ import { hashToken } from './tokens';
 
 /** Confirming an e-mail address through a mailed link. */
 
+/**
+ * The name to greet someone by in a mail: none while their address is unconfirmed, since then
+ * the name is text from whoever typed the address, and the mailbox agreed to nothing.
+ */
+export function nameForMail(user: { name: string; emailVerifiedAt?: Date | null }): string | null {
+	return user.emailVerifiedAt instanceof Date ? user.name : null;
+}
+
 /** Mail a fresh confirmation link; false when the mail could not be sent. */
 export async function sendVerification(
-	user: { id: string; email: string; name: string },
+	user: { id: string; email: string },
 	now: Date
 ): Promise<boolean> {
 	const token = await issueToken(user.id, 'verify', now);
 	const url = linkFor('/verify-email', token);
-	return trySend(() => sendMail({ to: user.email, ...verificationMail({ name: user.name, url }) }));
+	return trySend(() => sendMail({ to: user.email, ...verificationMail({ url }) }));
 }
 
 /**

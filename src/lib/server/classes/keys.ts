@@ -1,5 +1,5 @@
 import { CYCLE_OF_FOURTHS, MAJOR_KEY_SPELLINGS } from '../../music/key-data';
-import { chromaOf, parseNoteName } from '../../music/pitch';
+import { chromaOf, mod12, parseNoteName } from '../../music/pitch';
 
 /**
  * Keys as classes name them: a tonic spelled the usual jazz way for its pitch class (`Db`, not
@@ -14,7 +14,7 @@ export function pitchClassOf(tonic: unknown): number | null {
 	if (typeof tonic !== 'string' || tonic.length > 4) return null;
 	const note = parseNoteName(tonic);
 	if (!note) return null;
-	return ((chromaOf(note) % 12) + 12) % 12;
+	return mod12(chromaOf(note));
 }
 
 /**

@@ -1,6 +1,7 @@
 import { normalizeSettings, type UserSettings } from '../../practice/settings';
 import { toSettingsColumns } from '../study/settings';
 import { hashPassword } from '../auth/password';
+import { checkNewPassword } from '../auth/password-strength';
 import { getDb } from '../db/index';
 import { Deck, DeckLick, Lick, LickTag, User, type Role } from '../db/models/index';
 import { DEMO_DECKS, DEMO_LICKS } from '../../demo/licks';
@@ -58,6 +59,12 @@ export interface SeedReport {
  * exactly as it is (its password, role and settings included), so seeding twice changes nothing.
  */
 export async function seedDemo(password: string, now = new Date()): Promise<SeedReport> {
+	// The demo accounts get no exception from the password rule: a weak DEMO_PASSWORD is refused
+	// here with the sign-up form's own reason, before anything is written.
+	for (const account of DEMO_ACCOUNTS) {
+		const check = await checkNewPassword(password, account);
+		if (!check.ok) throw new Error(`DEMO_PASSWORD for ${account.email}: ${check.message}`);
+	}
 	const db = getDb();
 	const report: SeedReport = { created: [], kept: [] };
 	const hash = await hashPassword(password);

@@ -30,6 +30,7 @@ import {
 	type VariantSuccess
 } from '$lib/music';
 import { chromaOfName } from '$lib/music/degrees';
+import { formatNoteName } from '$lib/music/pitch';
 
 /** The largest answer sent, in bytes of JSON: a four-bar lick's full 12 × 9 grid is about 730 KB. */
 export const MAX_ANSWER_BYTES = 1024 * 1024;
@@ -302,7 +303,7 @@ export function twelveKeysFor(lick: PreparedLick, tritone: TritoneSpelling): Key
 	const mode = first && !first.none ? first.mode : 'major';
 	return CYCLE_OF_FOURTHS.map((k) => {
 		const t = jazzTonic(chromaOfName(k), mode, tritone);
-		return 'CDEFGAB'[t.letter] + (t.alt > 0 ? '#' : t.alt < 0 ? 'b' : '');
+		return formatNoteName(t);
 	});
 }
 

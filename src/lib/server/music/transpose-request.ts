@@ -75,8 +75,17 @@ export function readTransposeInput(body: unknown): TransposeInput {
 		};
 	}
 	const { abc, to, quality, instrument, tritone, versions: versionsInput } = value;
-	if (typeof abc !== 'string' || abc.trim() === '') {
-		return { ok: false, status: 400, message: 'Send the lick as a non-empty string in “abc”.' };
+	if (typeof abc !== 'string') {
+		return { ok: false, status: 400, message: 'Send the lick’s abc notation as text in “abc”.' };
+	}
+	if (abc.trim() === '') {
+		// Said to the person at the try-it box, who may never have written abc before.
+		return {
+			ok: false,
+			status: 400,
+			message:
+				'There is no lick to play yet. Write it in abc notation: a key line such as “K:C”, then the notes, e.g. “G A B c d2”.'
+		};
 	}
 	for (const [name, v] of Object.entries({ to, quality, instrument, tritone })) {
 		if (v !== undefined && v !== null && typeof v !== 'string') {

@@ -1,14 +1,23 @@
 import { redirect } from '@sveltejs/kit';
 import { resetPasswordSchema } from '$lib/forms/account';
+import { checkToken } from '$lib/server/auth/email-token';
 import { resetPassword } from '$lib/server/auth/reset';
 import { deleteSessionCookie } from '$lib/server/auth/session';
 import { filledForm, readForm, unreadable, refuse, refuseField, say } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
-/** The target of the mailed reset link; the token travels on in a hidden field. */
-export const load: PageServerLoad = async ({ url }) => ({
-	form: await filledForm(resetPasswordSchema, { token: url.searchParams.get('token') ?? '' })
-});
+/**
+ * The target of the mailed reset link; the token travels on in a hidden field. A link that is
+ * missing, spent, replaced or expired is said at once, with no form to fill in for nothing.
+ */
+export const load: PageServerLoad = async ({ url }) => {
+	const token = url.searchParams.get('token') ?? '';
+	const live = token ? await checkToken(token, 'reset', new Date()) : null;
+	return {
+		form: await filledForm(resetPasswordSchema, { token }),
+		linkProblem: live && !live.ok ? live.message : null
+	};
+};
 
 export const actions: Actions = {
 	default: async ({ request, cookies }) => {

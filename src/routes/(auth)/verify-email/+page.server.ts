@@ -1,26 +1,36 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { resendVerification, verifyEmail } from '$lib/server/auth/accounts';
 import { consumeResend } from '$lib/server/auth/limits';
-import { signInUrl } from '$lib/server/auth/redirects';
+import { homeFor, signInUrl } from '$lib/server/auth/redirects';
 import type { Actions, PageServerLoad } from './$types';
 
 /**
  * The target of the mailed link (`/verify-email?token=…`), and the "check your mail" screen
- * after sign-up (`?sent=1`). Opening the link is the confirmation: no extra click.
+ * after sign-up (`?sent=1`). Opening the link is the confirmation: no extra click. Opened
+ * without a link, the page says only what it knows: that a signed-in account is not confirmed
+ * yet, or, to someone signed out, where the link is to be found.
  */
 export const load: PageServerLoad = async ({ url, locals }) => {
 	const token = url.searchParams.get('token');
-	const signedIn = locals.user !== null;
+	const user = locals.user;
+	const base = {
+		signedIn: user !== null,
+		home: user ? homeFor(user.role) : '/sign-in',
+		role: user?.role ?? null,
+		email: user?.email ?? null
+	};
 	if (token !== null) {
 		const result = await verifyEmail(token);
 		if (result.ok) {
-			return { screen: result.already ? 'already' : 'verified', message: null, signedIn } as const;
+			return { ...base, screen: result.already ? 'already' : 'verified', message: null } as const;
 		}
-		return { screen: 'failed', message: result.message, signedIn } as const;
+		return { ...base, screen: 'failed', message: result.message } as const;
 	}
-	if (locals.user?.emailVerified) return { screen: 'already', message: null, signedIn } as const;
+	if (!user) return { ...base, screen: 'signed-out', message: null } as const;
+	if (user.emailVerified) return { ...base, screen: 'already', message: null } as const;
 	const sent = url.searchParams.get('sent');
-	return { screen: sent === '0' ? 'unsent' : 'waiting', message: null, signedIn } as const;
+	const screen = sent === '1' ? 'waiting' : sent === '0' ? 'unsent' : 'unconfirmed';
+	return { ...base, screen, message: null } as const;
 };
 
 export const actions: Actions = {
@@ -46,6 +56,6 @@ export const actions: Actions = {
 				message: 'The mail could not be sent just now. Try again in a few minutes.'
 			});
 		}
-		redirect(303, '/verify-email?sent=1');
+		return { values: {}, resent: locals.user.email };
 	}
 };

@@ -83,7 +83,7 @@ export const actions: Actions = {
 			if (result.reason === 'invalid') {
 				return refuseField(form, result.field, result.message, 422, ...secrets);
 			}
-			return say(form, result.message, 404, ...secrets);
+			return say(form, result.message, result.reason === 'conflict' ? 409 : 404, ...secrets);
 		}
 		redirect(303, '/settings?changed=password');
 	},

@@ -15,7 +15,7 @@ const identity = (text: string): string => {
 	return emitAbc(t, {
 		keys: t.keys.map((k) => k.key),
 		pitches: t.heads.map((h) => h.pitch),
-		chordSymbols: t.chordSymbols.map((c) => t.tokens[c.token].value as string)
+		chordSymbols: t.chordSymbols.map((c) => c.text)
 	});
 };
 const variant = (abc: string, to?: string) => {

@@ -171,9 +171,45 @@ describe('abc parser', () => {
 	it('warns when a tie joins different pitches, reading them as two notes', () => {
 		const t = tune(head('G') + '^f2- | f2\n');
 		expect(t.notes.map((n) => [n.pitch, n.duration])).toEqual([['F#5', 1 / 2]]);
-		const u = tune(head() + '^f2- | f2\n');
+		const u = tune(head() + '^f2- | =f2\n');
 		expect(u.notes.map((n) => n.pitch)).toEqual(['F#5', 'F5']);
 		expect(u.warnings.map((w) => w.code)).toContain('tie-unmatched');
+	});
+
+	it('carries a tied accidental over the bar line for the tied note only: ^G-|G is one G#', () => {
+		// engraving practice (E. Gould, Behind Bars, 2011, from memory); reference: abcjs 6.7.2
+		// setUpAudio plays ^G4-|G4 G4 as G#4 for a whole note, then G4 (run)
+		const t = tune(head() + '^G4- | G4 G4 |]\n');
+		expect(t.notes.map((n) => [n.pitch, n.duration])).toEqual([
+			['G#4', 1],
+			['G4', 1 / 2]
+		]);
+		expect(t.warnings).toEqual([]);
+		const audio = abcjs.parseOnly(head() + '^G4- | G4 G4 |]\n')[0].setUpAudio({});
+		const played = (audio.tracks[0] as { cmd: string; pitch: number; duration: number }[])
+			.filter((e) => e.cmd === 'note')
+			.map((e) => [e.pitch, e.duration]);
+		expect(played).toEqual(t.notes.map((n) => [n.midi, n.duration]));
+		// in a chord, and with a key signature's flat tied the other way
+		expect(tune(head() + '[^GB]4- | [GB]4 |]\n').notes.map((n) => n.pitch)).toEqual(['G#4', 'B4']);
+		expect(tune(head('F') + '=B4- | B4 B4 |]\n').notes.map((n) => n.pitch)).toEqual(['B4', 'Bb4']);
+	});
+
+	it('warns where a note reads differently by letter and by octave (abc 2.1 §11.3), naming the reading used', () => {
+		// REFERENCES.md §1: K:C ^c c C → C#4 under `pitch` (the default, used), C4 under `octave`
+		const t = tune(head() + '^c c C | c\n');
+		expect(t.notes.map((n) => n.pitch)).toEqual(['C#5', 'C#5', 'C#4', 'C5']);
+		const w = t.warnings.filter((x) => x.code === 'accidental-reading');
+		expect(w).toHaveLength(1);
+		expect(w[0].message).toContain('Line 6, column 6');
+		expect(w[0].message).toContain('“C” sounds C♯4');
+		expect(w[0].message).toContain('which is how it is read here');
+		expect(w[0].message).toContain('Write ^C or =C');
+		// none where both readings agree, or where the lick says which it uses
+		expect(tune(head() + '^c c ^C C | c\n').warnings).toEqual([]);
+		expect(tune(head() + '^c c | C\n').warnings).toEqual([]);
+		const declared = tune('%%propagate-accidentals octave\n' + head() + '^c c C | c\n');
+		expect(declared.warnings).toEqual([]);
 	});
 
 	it('keeps grace notes out of the timing but reads their pitches', () => {

@@ -229,8 +229,8 @@ describe('abc tokenizer', () => {
 
 	it('reads chord symbols and annotations apart (abc 2.1 §4.18, §4.19)', () => {
 		const [sym, , ann] = body('"Bb7#11/D"A"@here"B');
-		expect([sym.kind, sym.value]).toEqual(['chord-symbol', 'Bb7#11/D']);
-		expect([ann.kind, ann.value]).toEqual(['annotation', '@here']);
+		expect(sym).toMatchObject({ kind: 'chord-symbol', value: 'Bb7#11/D' });
+		expect(ann).toMatchObject({ kind: 'annotation', value: '@here' });
 	});
 
 	it('gives note parts and positions', () => {

@@ -89,8 +89,10 @@ describe('POST /api/transpose', () => {
 		[{ abc: LICK, instrument: 'kazoo' }, 422, /not an instrument/],
 		[{ abc: LICK, tritone: 'Fb' }, 422, /tritone/],
 		[{ abc: LICK, colour: 'red' }, 400, /Unknown field/],
-		[{ abc: 42 }, 400, /non-empty string/],
-		[{ abc: '' }, 400, /non-empty string/],
+		[{ abc: 42 }, 400, /abc notation as text/],
+		// Empty: said to a musician, with an example of what to write.
+		[{ abc: '' }, 400, /^There is no lick to play yet\. Write it in abc notation: .*“K:C”/],
+		[{ abc: '  \n ' }, 400, /^There is no lick to play yet/],
 		[{ abc: LICK, to: 5 }, 400, /must be a string/],
 		[[LICK], 400, /JSON object/],
 		[null, 400, /JSON object/]

@@ -1,4 +1,10 @@
-export { verificationMail, passwordResetMail, type AccountMailInput } from './account';
+export {
+	verificationMail,
+	passwordResetMail,
+	passwordChangedMail,
+	type AccountMailInput,
+	type PasswordChangedMailInput
+} from './account';
 export { classInvitationMail, type ClassInvitationMailInput } from './class';
 export {
 	renderMail,

@@ -1,4 +1,5 @@
 import { QueryTypes } from 'sequelize';
+import { NEW_PER_DAY_MAX, TEMPO_MAX, TEMPO_MIN } from '../../forms/classes';
 import { QUALITY_IDS } from '../../music/types';
 import { addDays } from '../../practice/day';
 import { getDb } from '../db/index';
@@ -58,9 +59,7 @@ export interface AssignmentInput {
 	paused?: unknown;
 }
 
-export const NEW_PER_DAY_MAX = 50;
-export const TEMPO_MIN = 20;
-export const TEMPO_MAX = 400;
+export { NEW_PER_DAY_MAX, TEMPO_MAX, TEMPO_MIN };
 
 const dayPattern = /^\d{4}-\d{2}-\d{2}$/;
 

@@ -112,6 +112,24 @@ test('the demo teacher’s library shows the demo licks, and a lick written in t
 	await page.getByRole('button', { name: 'Discard them' }).click();
 	await expect(page.getByLabel('Title')).toHaveValue('Evening walk');
 	await shoot(page, 'lick-editor');
+
+	// The home key and quality follow the abc unless overridden; an override is kept.
+	const homeKey = page.getByLabel('Home key');
+	await expect(homeKey).toHaveValue('');
+	await expect(homeKey.locator('option').first()).toHaveText('As the abc reads it (F)');
+	await expect(page.getByLabel('Home chord quality').locator('option').first()).toContainText(
+		'As the first chord reads it (Dominant'
+	);
+	await homeKey.selectOption('Bb');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByTestId('save-state')).toHaveText('All changes saved.');
+	await page.reload();
+	await expect(page.getByLabel('Home key')).toHaveValue('Bb');
+	await page.getByLabel('Home key').selectOption('');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByTestId('save-state')).toHaveText('All changes saved.');
+	await page.reload();
+	await expect(page.getByLabel('Home key')).toHaveValue('');
 });
 
 test('a reference recording uploads and plays', async ({ page }) => {

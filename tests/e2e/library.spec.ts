@@ -233,6 +233,7 @@ test('a public lick’s share link opens for a visitor, who can hear it in anoth
 	await signInAsDemoTeacher(page);
 	await page.goto(lickUrl);
 	await page.getByLabel('Who sees it').selectOption('public');
+	await page.getByLabel('Teaching note (Markdown)').fill('Lean on the E♭, the ♭7 of F7.');
 	await page.getByRole('button', { name: 'Save changes' }).click();
 	const link = page.getByTestId('share-link');
 	await expect(link).toBeVisible();
@@ -247,6 +248,9 @@ test('a public lick’s share link opens for a visitor, who can hear it in anoth
 	await visitor.getByLabel('Instrument').selectOption('alto-sax');
 	await visitor.getByRole('button', { name: 'Show this key' }).click();
 	await expect(visitor.getByTestId('try-result')).toContainText('sounds in B♭');
+	// The note's names follow the key on screen: the alto reads concert B♭ as G.
+	await expect(visitor.getByTestId('teaching-note')).toHaveText('Lean on the F, the ♭7 of G7.');
+	await expect(visitor.getByTestId('note-key')).toContainText('moved to G, the key shown below');
 	// The recording is served to anyone holding the link, in byte ranges.
 	const src = (await visitor.locator('audio').getAttribute('src'))!;
 	const ranged = await visitor.request.get(src, { headers: { range: 'bytes=0-3' } });

@@ -69,7 +69,7 @@ export function respellNoteText(text: string, from: string, to: string): NoteTex
 			if (!note) return whole;
 			moved += 1;
 			const name = formatNoteName(transposeNoteName(note, by));
-			const useSigns = accidental ? /[♭♯𝄫𝄪]/.test(accidental) : signs;
+			const useSigns = accidental ? /[♭♯]|𝄫|𝄪/u.test(accidental) : signs;
 			return (useSigns ? withSigns(name) : name) + suffix;
 		}
 	);

@@ -13,6 +13,9 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					environment: 'node',
+					// The first test of a file pays for importing the engine; on two loaded cores (the
+					// whole suite runs files in parallel, beside a server build) that can pass 5 s.
+					testTimeout: 30_000,
 					include: ['tests/unit/**/*.test.ts'],
 					setupFiles: ['tests/unit/setup.ts']
 				}
@@ -24,6 +27,7 @@ export default defineConfig({
 				test: {
 					name: 'client',
 					environment: 'node',
+					testTimeout: 30_000,
 					include: ['tests/client/**/*.test.ts']
 				}
 			},
@@ -34,8 +38,10 @@ export default defineConfig({
 					environment: 'node',
 					include: ['tests/integration/**/*.test.ts'],
 					// Each file gets its own SQLite file and SMTP port; files run in parallel processes.
-					testTimeout: 30_000,
-					hookTimeout: 60_000
+					// Generous: files run in parallel with a server build and a load test on two cores,
+					// and the first test of a file pays for importing the routes it drives.
+					testTimeout: 90_000,
+					hookTimeout: 180_000
 				}
 			}
 		]

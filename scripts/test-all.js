@@ -32,8 +32,24 @@ codes.push(run('npx', ['playwright', 'test'], { PLAYWRIGHT_JSON_OUTPUT_NAME: `${
 let passed = 0;
 let failed = 0;
 let skipped = 0;
+// The names of the failures, printed again just above the closing line: a CI log is often read
+// from its tail only, and vitest's own list scrolled away long before the end-to-end run.
+const failures = [];
 if (existsSync(`${out}/vitest.json`)) {
 	const report = JSON.parse(readFileSync(`${out}/vitest.json`, 'utf8'));
+	for (const file of report.testResults ?? []) {
+		const where = file.name.replace(process.cwd() + '/', '');
+		if (file.status === 'failed' && file.assertionResults.length === 0)
+			failures.push(`${where}: ${String(file.message ?? 'failed to load').split('\n')[0]}`);
+		for (const t of file.assertionResults)
+			if (t.status === 'failed')
+				failures.push(
+					`${where} › ${t.fullName ?? t.title}: ${String(t.failureMessages?.[0] ?? '')
+						.split('\n')
+						.slice(0, 3)
+						.join(' ')}`
+				);
+	}
 	passed += report.numPassedTests;
 	failed += report.numFailedTests;
 	skipped += report.numPendingTests + (report.numTodoTests ?? 0);
@@ -43,7 +59,16 @@ if (existsSync(`${out}/vitest.json`)) {
 	).length;
 } else failed += 1;
 if (existsSync(`${out}/e2e.json`)) {
-	const stats = JSON.parse(readFileSync(`${out}/e2e.json`, 'utf8')).stats;
+	const e2e = JSON.parse(readFileSync(`${out}/e2e.json`, 'utf8'));
+	const stats = e2e.stats;
+	const walk = (suite, titles) => {
+		for (const spec of suite.specs ?? [])
+			for (const t of spec.tests ?? [])
+				if (t.status === 'unexpected')
+					failures.push(`${spec.file} › ${[...titles, spec.title].join(' › ')}`);
+		for (const child of suite.suites ?? []) walk(child, [...titles, child.title]);
+	};
+	for (const suite of e2e.suites ?? []) walk(suite, []);
 	passed += stats.expected + stats.flaky;
 	failed += stats.unexpected;
 	skipped += stats.skipped;
@@ -51,5 +76,6 @@ if (existsSync(`${out}/e2e.json`)) {
 
 const anyFailed = failed > 0 || codes.some((code) => code !== 0);
 if (anyFailed && failed === 0) failed = 1; // a step failed without a test to show for it
+if (failures.length) console.log(`\nFailed:\n${failures.map((f) => `  ${f}`).join('\n')}`);
 console.log(`\n${passed} passed, ${failed} failed, ${skipped} skipped`);
 process.exit(anyFailed ? 1 : 0);

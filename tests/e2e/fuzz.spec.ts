@@ -29,6 +29,13 @@ const COUNTER_TABLES = /rate_?limit|attempt/i;
 /** Routes that end the session they are called with, whatever the body says. */
 const SESSION_ENDING = /sign-out/;
 
+/**
+ * Form actions that change rows by design whatever the body says: a one-button "add the demo
+ * licks to my library", and a form of one checkbox, where a body without the field is how a
+ * browser says "unticked". Posted by visitors only, who are sent to sign in.
+ */
+const NO_INPUT_ACTIONS = new Set(['/(learn)/library?/demo', '/(learn)/settings?/summary']);
+
 interface RouteFile {
 	id: string;
 	kind: 'endpoint' | 'page';
@@ -237,6 +244,23 @@ function send(
 	});
 }
 
+/** The rows of the latest snapshot, per table, to name what changed when a check fails. */
+let snapshotRows = new Map<string, string[]>();
+
+/** The rows that differ between two snapshots' row lists, a few per table. */
+function changedRows(before: Map<string, string[]>, after: Map<string, string[]>): string[] {
+	const out: string[] = [];
+	for (const [table, rows] of after) {
+		const old = new Set(before.get(table) ?? []);
+		const now = new Set(rows);
+		const added = rows.filter((r) => !old.has(r)).slice(0, 3);
+		const removed = [...old].filter((r) => !now.has(r)).slice(0, 3);
+		for (const r of removed) out.push(`${table} - ${r.slice(0, 300)}`);
+		for (const r of added) out.push(`${table} + ${r.slice(0, 300)}`);
+	}
+	return out;
+}
+
 /** Every row of every table, hashed per table (counter tables left out), and the outbox size. */
 async function snapshot(dataDir: string): Promise<Record<string, { rows: number; hash: string }>> {
 	const db = new sqlite3.Database(path.join(dataDir, 'twelvefold.sqlite'), sqlite3.OPEN_READONLY);
@@ -258,6 +282,10 @@ async function snapshot(dataDir: string): Promise<Record<string, { rows: number;
 			rows: rows.length,
 			hash: createHash('sha256').update(JSON.stringify(rows)).digest('hex')
 		};
+		snapshotRows.set(
+			table,
+			rows.map((row) => JSON.stringify(row))
+		);
 	}
 	await new Promise<void>((resolve) => db.close(() => resolve()));
 	const outbox = path.join(dataDir, 'outbox');
@@ -283,7 +311,16 @@ test.beforeAll(async () => {
 	runScript('scripts/migrate.ts');
 	runScript('scripts/seed.ts');
 	server = spawn(process.execPath, ['build'], {
-		env: { ...process.env, PORT: '0', HOST: '127.0.0.1', ORIGIN, DATA_DIR, SMTP_URL: '' },
+		// The scheduled mails would send on their own clock during the run: off.
+		env: {
+			...process.env,
+			PORT: '0',
+			HOST: '127.0.0.1',
+			ORIGIN,
+			DATA_DIR,
+			SMTP_URL: '',
+			DIGEST_SCHEDULE: 'off'
+		},
 		stdio: ['ignore', 'pipe', 'pipe']
 	});
 	const port = await new Promise<string>((resolve, reject) => {
@@ -315,9 +352,7 @@ async function cookieFor(email: string): Promise<string> {
 	return cookie.split(';')[0];
 }
 
-// Under heavy machine load the server resets some oversized form posts (status 0 at the client)
-// before answering 413; held back until the oversized cases read a reset as a refusal.
-test.fixme('hostile requests to every JSON route and form action: no 5xx, no changed row', async () => {
+test('hostile requests to every JSON route and form action: no 5xx, no changed row', async () => {
 	test.setTimeout(600_000);
 	const routes = discoverRoutes();
 	// The discovery must find the routes we know of, or it finds nothing and proves nothing.
@@ -333,6 +368,8 @@ test.fixme('hostile requests to every JSON route and form action: no 5xx, no cha
 		['admin', await cookieFor('admin@example.com')]
 	];
 	const before = await snapshot(DATA_DIR);
+	const rowsBefore = snapshotRows;
+	snapshotRows = new Map();
 
 	const answers: Answer[] = [];
 	const record = async (what: string, status: Promise<number>) => {
@@ -347,6 +384,9 @@ test.fixme('hostile requests to every JSON route and form action: no 5xx, no cha
 				if (param !== '1' && !route.id.includes('[')) continue;
 				const target = pathOf(route.id, param);
 				const tag = (detail: string) => `${who} ${target} ${detail}`;
+				// A hostile route parameter is caught before any body is read: a quarter of the
+				// bodies is enough there, and keeps the run to a few minutes on two cores.
+				const some = <T>(list: T[]) => (param === '1' ? list : list.filter((_, i) => i % 4 === 0));
 
 				// Reads with hostile query strings, on every route.
 				for (const query of [
@@ -369,7 +409,7 @@ test.fixme('hostile requests to every JSON route and form action: no 5xx, no cha
 						'POST'
 					]);
 					for (const method of methods) {
-						for (const [label, body] of JSON_BODIES) {
+						for (const [label, body] of some(JSON_BODIES)) {
 							await record(
 								tag(`${method} ${label}`),
 								send(base, method, target, { body, type: 'application/json', cookie })
@@ -418,8 +458,9 @@ test.fixme('hostile requests to every JSON route and form action: no 5xx, no cha
 					// The page's own actions get every body; a foreign name needs one to show its 404.
 					const own = route.actions.filter((a) => a !== 'default');
 					for (const name of [null, ...own]) {
+						if (cookie && name && NO_INPUT_ACTIONS.has(`${route.id}?/${name}`)) continue;
 						const action = name === null ? target : `${target}?/${name}`;
-						for (const [label, body, type] of FORM_BODIES) {
+						for (const [label, body, type] of some(FORM_BODIES)) {
 							await record(
 								tag(`POST ${action} ${label}`),
 								send(base, 'POST', action, { body, type, cookie })
@@ -492,9 +533,11 @@ test.fixme('hostile requests to every JSON route and form action: no 5xx, no cha
 		`fuzz: ${answers.length} requests over ${routes.length} routes; statuses ${JSON.stringify(statuses)}`
 	);
 	expect(serverErrors.slice(0, 20)).toEqual([]);
-	// Only chunked bodies past the server's own cap may be cut off without an answer.
-	expect(answers.filter((a) => a.status === 0 && !a.what.includes('chunked'))).toEqual([]);
-	expect(after).toEqual(before);
+	// Only bodies past the server's own cap may be cut off without an answer: the server answers
+	// 413 and closes the socket while the client is still writing, and under load the client may
+	// see the reset before it reads the 413. Either way the body was refused (no row changed).
+	expect(answers.filter((a) => a.status === 0 && !a.what.includes('oversized'))).toEqual([]);
+	expect(after, changedRows(rowsBefore, snapshotRows).join('\n')).toEqual(before);
 	// `?/toString` once answered 200: every unknown name is refused now. (An enhanced post
 	// gets a redirect as a 200 action result, e.g. a visitor sent to sign in: not counted.)
 	expect(

@@ -11,6 +11,7 @@ import {
 	handleTextFields
 } from '../../../src/lib/server/http/edge';
 import { readJsonBody } from '../../../src/lib/server/http/json';
+import { ownActionNames } from '../../../src/lib/server/http/routes';
 import { POST as signUpPost } from '../../../src/routes/api/auth/sign-up/+server';
 import { load as signOutLoad } from '../../../src/routes/(auth)/sign-out/+page.server';
 import { fakeEvent, type FakeEventInput } from '../support/fake-event';
@@ -19,6 +20,8 @@ import { openTestWorld, type TestWorld } from '../support/world';
 let world: TestWorld;
 beforeAll(async () => {
 	world = await openTestWorld();
+	// Importing a page's server module the first time is slow: done here, not inside a test.
+	await ownActionNames('/(auth)/sign-in');
 });
 afterAll(() => world.close());
 beforeEach(() => configureAuthLimits());

@@ -303,7 +303,6 @@ export async function createAssignment(
 /** The assignment if the actor teaches its class. */
 async function ownAssignment(actor: Actor, id: unknown): Promise<Assignment | null> {
 	if (!isId(id) || !canTeach(actor)) return null;
-	getDb();
 	const row = await Assignment.findByPk(id);
 	if (!row) return null;
 	return (await ownClass(actor, row.classId)) ? row : null;

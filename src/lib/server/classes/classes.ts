@@ -147,7 +147,6 @@ export async function createClass(
 	if (!canTeach(actor)) return forbidden('Only teachers create classes.');
 	const name = readClassName(input.name);
 	if (!name) return invalid('name', nameMessage);
-	getDb();
 	const row = await withFreshCode((joinCode) =>
 		ClassGroup.create({ teacherId: actor.id, name, joinCode, joinToken: createToken() })
 	);

@@ -19,7 +19,6 @@ export interface LearnerClock {
 export async function clocksOf(userIds: string[]): Promise<Map<string, LearnerClock>> {
 	const out = new Map<string, LearnerClock>();
 	if (userIds.length === 0) return out;
-	getDb();
 	const rows = await User.findAll({ where: { id: { [Op.in]: userIds } } });
 	for (const row of rows) {
 		const settings = settingsOf(row);

@@ -34,7 +34,6 @@ async function accessibleCard(
 	cardId: unknown
 ): Promise<{ card: Card; as: 'learner' | 'teacher' } | null> {
 	if (!isId(cardId)) return null;
-	getDb();
 	const card = await Card.findByPk(cardId);
 	if (!card) return null;
 	if (card.userId === actor.id) return { card, as: 'learner' };

@@ -64,7 +64,6 @@ export async function ownClass(
 	transaction?: Transaction
 ): Promise<ClassGroup | null> {
 	if (!isId(classId) || !canTeach(actor)) return null;
-	getDb();
 	return ClassGroup.findOne({ where: { id: classId, teacherId: actor.id }, transaction });
 }
 
@@ -74,7 +73,6 @@ export async function isMember(
 	classId: string,
 	transaction?: Transaction
 ): Promise<boolean> {
-	getDb();
 	return (await ClassMember.count({ where: { classId, userId }, transaction })) > 0;
 }
 
@@ -87,7 +85,6 @@ export async function visibleClass(
 	classId: unknown
 ): Promise<{ row: ClassGroup; as: 'teacher' | 'learner' } | null> {
 	if (!isId(classId)) return null;
-	getDb();
 	const row = await ClassGroup.findByPk(classId);
 	if (!row) return null;
 	if (row.teacherId === actor.id && canTeach(actor)) return { row, as: 'teacher' };

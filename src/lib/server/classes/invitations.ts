@@ -167,7 +167,6 @@ export async function acceptInvitation(
 	now = new Date()
 ): Promise<Result<JoinedClass>> {
 	if (!tokenShaped(token)) return notFound('This invitation link is incomplete.');
-	getDb();
 	const row = await ClassInvitation.findOne({ where: { tokenHash: hashToken(token) } });
 	if (!row) return notFound('This invitation link is not valid.');
 	if (row.expiresAt.getTime() <= now.getTime() && !row.acceptedAt) {

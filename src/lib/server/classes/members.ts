@@ -119,7 +119,6 @@ const codeMessage = 'Enter the 8-character class code your teacher gave you.';
 export async function joinByCode(actor: Actor, codeInput: unknown): Promise<Result<JoinedClass>> {
 	const code = normalizeJoinCode(codeInput);
 	if (!code) return invalid('code', codeMessage);
-	getDb();
 	const cls = await ClassGroup.findOne({ where: { joinCode: code } });
 	if (!cls)
 		return notFound('No class has this code. Check it with your teacher: codes can be renewed.');
@@ -156,7 +155,6 @@ export async function joinByLink(actor: Actor, token: unknown): Promise<Result<J
 	if (typeof token !== 'string' || token.length < 20 || token.length > 64) {
 		return notFound('This invite link is incomplete.');
 	}
-	getDb();
 	const cls = await ClassGroup.findOne({ where: { joinToken: token } });
 	if (!cls) return notFound('This invite link no longer works: ask your teacher for a new one.');
 	return joinClass(actor.id, cls);

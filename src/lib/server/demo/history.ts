@@ -11,7 +11,7 @@
  * order then brings back to her all the more.
  */
 import { ClassGroup, User } from '../db/models/index';
-import { getDb } from '../db/index';
+
 import { createAssignment } from '../classes/assignments';
 import { createClass } from '../classes/classes';
 import { postComment } from '../classes/comments';
@@ -93,7 +93,6 @@ export async function seedDemoHistory(
 	now = new Date(),
 	seed = 'lantern-street'
 ): Promise<HistoryReport> {
-	getDb();
 	const teacherRow = await User.findOne({ where: { email: teacherEmail } });
 	if (!teacherRow || deckIds.length < 2) return { skipped: true, reviews: 0, sittings: 0 };
 	if (await ClassGroup.findOne({ where: { teacherId: teacherRow.id, name: DEMO_CLASS_NAME } })) {

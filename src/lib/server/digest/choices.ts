@@ -1,4 +1,3 @@
-import { getDb } from '../db/index';
 import { User } from '../db/models/index';
 
 /**
@@ -29,7 +28,6 @@ export interface MailChoices {
  * @example await readMailChoices(user.id) // { digestEnabled: true, summaryEnabled: true, summaryWeekday: 1 }
  */
 export async function readMailChoices(userId: string): Promise<MailChoices | null> {
-	getDb();
 	const user = await User.findByPk(userId, {
 		attributes: ['id', 'digestEnabled', 'summaryEnabled', 'summaryWeekday']
 	});
@@ -52,7 +50,6 @@ export async function setMailChoice(
 	kind: MailChoice,
 	enabled: boolean
 ): Promise<boolean> {
-	getDb();
 	const user = await User.findByPk(userId);
 	if (!user) return false;
 	const current = kind === 'digest' ? user.digestEnabled : user.summaryEnabled;
@@ -71,7 +68,6 @@ export async function setSummaryChoice(
 	userId: string,
 	choice: { summaryEnabled: boolean; summaryWeekday: number }
 ): Promise<boolean> {
-	getDb();
 	const [changed] = await User.update(
 		{ summaryEnabled: choice.summaryEnabled, summaryWeekday: choice.summaryWeekday },
 		{ where: { id: userId } }

@@ -1,6 +1,6 @@
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import { getConfig } from '../config';
-import { getDb } from '../db/index';
+
 import { User } from '../db/models/index';
 import { setMailChoice } from './choices';
 import { writeAlone } from './sql';
@@ -26,7 +26,6 @@ function sign(secret: string, userId: string, kind: MailChoice): string {
  * @example await ensureMailSecret(user.id) // 'b3…' (43 characters)
  */
 export async function ensureMailSecret(userId: string): Promise<string> {
-	getDb();
 	const row = await User.findByPk(userId, { attributes: ['id', 'mailSecret'] });
 	if (!row) throw new Error(`No user ${userId} to sign a mail link for`);
 	if (row.mailSecret) return row.mailSecret;
@@ -90,7 +89,6 @@ export async function readUnsubscribeToken(token: unknown): Promise<ReadTokenRes
 		};
 	}
 	const [, userId, kind, signature] = match as unknown as [string, string, MailChoice, string];
-	getDb();
 	const user = await User.findByPk(userId, {
 		attributes: ['id', 'name', 'email', 'mailSecret', 'digestEnabled', 'summaryEnabled']
 	});

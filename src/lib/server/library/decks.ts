@@ -119,7 +119,6 @@ function toSummary(actor: Actor, row: DeckRow, count: number): DeckSummary {
 }
 
 async function findReadable(actor: Actor, id: string, transaction?: Transaction): Promise<DeckRow> {
-	getDb();
 	if (!isUuid(id)) throw deckNotFound();
 	const row = (await Deck.findOne({
 		where: { [Op.and]: [{ id }, readableDeck(actor)] },

@@ -348,7 +348,6 @@ const FULL = () => [
 
 /** The row of a lick the actor may read, with its author, tags and versions; or 404. */
 async function findReadable(actor: Actor, id: string, transaction?: Transaction): Promise<LickRow> {
-	getDb();
 	if (!isUuid(id)) throw lickNotFound();
 	const row = (await Lick.findOne({
 		where: { [Op.and]: [{ id }, readableLick(actor)] },
@@ -385,7 +384,6 @@ export async function getLick(actor: Actor, id: string): Promise<LickDetail> {
  * @example await canReadLick(user, id) // true
  */
 export async function canReadLick(actor: Actor, id: string): Promise<boolean> {
-	getDb();
 	if (!isUuid(id)) return false;
 	return (await Lick.count({ where: { [Op.and]: [{ id }, readableLick(actor)] } })) > 0;
 }
@@ -689,7 +687,6 @@ export async function copyLick(actor: Actor, id: string): Promise<LickDetail> {
  * @example await findSharedLick('k3Jx9aQw2LbZ') // { title, abc, … } | null
  */
 export async function findSharedLick(slug: string): Promise<LickDetail | null> {
-	getDb();
 	if (!/^[A-Za-z0-9_-]{6,32}$/.test(slug)) return null;
 	const row = (await Lick.findOne({
 		where: { shareSlug: slug, visibility: 'public' },

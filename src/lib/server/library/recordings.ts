@@ -1,6 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { fileTypeFromBuffer } from 'file-type';
-import { getDb } from '../db/index';
+
 import { Lick } from '../db/models/index';
 import { getBlobStore } from '../storage/index';
 import type { Actor } from './access';
@@ -101,7 +101,6 @@ export async function putRecording(
 export async function deleteRecording(actor: Actor, lickId: string): Promise<void> {
 	const lick = await getLick(actor, lickId);
 	if (!lick.mine) throw new LibraryError(403, 'Only its author can change this lick.');
-	getDb();
 	const row = await Lick.findByPk(lick.id, { attributes: ['id', 'recordingKey'] });
 	if (!row?.recordingKey) return;
 	await Lick.update(
@@ -146,7 +145,6 @@ export async function recordingResponse(
 	rangeHeader: string | null
 ): Promise<Response> {
 	if (!lick.recording) throw new LibraryError(404, 'This lick has no recording.');
-	getDb();
 	const row = await Lick.findByPk(lick.id, { attributes: ['recordingKey', 'recordingType'] });
 	const key = row?.recordingKey;
 	const store = getBlobStore();

@@ -67,6 +67,8 @@ test.beforeAll(() => {
 test('the demo teacher’s library shows the demo licks, and a lick written in the editor is checked in place and saved', async ({
 	page
 }) => {
+	// Writing, checking, saving, reloading and overriding the home key: a long walk on two cores.
+	test.slow();
 	await signInAsDemoTeacher(page);
 	await page.goto('/library');
 	const table = page.getByTestId('library-table');
@@ -122,12 +124,12 @@ test('the demo teacher’s library shows the demo licks, and a lick written in t
 	);
 	await homeKey.selectOption('Bb');
 	await page.getByRole('button', { name: 'Save changes' }).click();
-	await expect(page.getByTestId('save-state')).toHaveText('All changes saved.');
+	await expect(page.getByTestId('save-state')).toHaveText('Saved.');
 	await page.reload();
 	await expect(page.getByLabel('Home key')).toHaveValue('Bb');
 	await page.getByLabel('Home key').selectOption('');
 	await page.getByRole('button', { name: 'Save changes' }).click();
-	await expect(page.getByTestId('save-state')).toHaveText('All changes saved.');
+	await expect(page.getByTestId('save-state')).toHaveText('Saved.');
 	await page.reload();
 	await expect(page.getByLabel('Home key')).toHaveValue('');
 });
@@ -230,6 +232,8 @@ test('a public lick’s share link opens for a visitor, who can hear it in anoth
 	page,
 	browser
 }) => {
+	// Two browsers, a save and a transposition for a transposing instrument.
+	test.slow();
 	await signInAsDemoTeacher(page);
 	await page.goto(lickUrl);
 	await page.getByLabel('Who sees it').selectOption('public');

@@ -175,13 +175,17 @@ const cardQuality = new Map(
 const { token } = await createSession(learner.id);
 await closeDb();
 
-async function hammer(port: number, headers: Record<string, string>) {
-	let n = 0;
+/** Seconds each server is loaded before the measured run, and of the measured run. */
+const WARM_UP_S = 3;
+const MEASURE_S = 8;
+
+let n = 0;
+async function hammer(port: number, headers: Record<string, string>, duration = MEASURE_S) {
 	const result = await autocannon({
 		url: `http://127.0.0.1:${port}/api/drill/reviews`,
 		method: 'POST',
 		connections: 20,
-		duration: 8,
+		duration,
 		timeout: 30,
 		headers: { 'content-type': 'application/json', ...headers },
 		requests: [
@@ -247,7 +251,11 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 		if (existsSync(dbFile + ext)) copyFileSync(dbFile + ext, bareFile + ext);
 
 	const appPort = await freePort();
-	const app = spawn(process.execPath, ['build'], {
+	// BENCH_CPU_PROF=<dir> writes a V8 CPU profile of the server (on a clean exit) for reading.
+	const profile = process.env.BENCH_CPU_PROF
+		? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(process.env.BENCH_CPU_PROF)}`]
+		: [];
+	const app = spawn(process.execPath, [...profile, 'build'], {
 		cwd: ROOT,
 		// Its log is kept and shown only when no write succeeded (stopping it mid-request logs
 		// the requests cut off).
@@ -265,7 +273,11 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 	let appLog = '';
 	app.stderr?.on('data', (chunk) => (appLog += chunk));
 	await waitFor(appPort, '/api/me', 401);
-	const ours = await hammer(appPort, { cookie: `${SESSION_COOKIE_NAME}=${token}` });
+	// A server just started loads its route modules and compiles its hot paths on the first
+	// requests: both servers are warmed up alike before the measured run.
+	const session = { cookie: `${SESSION_COOKIE_NAME}=${token}` };
+	await hammer(appPort, session, WARM_UP_S);
+	const ours = await hammer(appPort, session);
 	await stop(app);
 	if (ours.ok === 0) console.error(appLog.slice(0, 4000));
 
@@ -275,11 +287,12 @@ if (!existsSync(path.join(ROOT, 'build', 'index.js'))) {
 		stdio: ['ignore', 'ignore', 'inherit', 'ipc']
 	});
 	await new Promise((resolve) => bare.once('message', resolve));
+	await hammer(barePort, { 'x-user': learner.id }, WARM_UP_S);
 	const yardstick = await hammer(barePort, { 'x-user': learner.id });
 	await stop(bare);
 
 	lines.push(
-		`POST /api/drill/reviews, autocannon 20 connections × 8 s on loopback:`,
+		`POST /api/drill/reviews, autocannon 20 connections × ${MEASURE_S} s on loopback (after ${WARM_UP_S} s of warm-up):`,
 		`  Twelvefold (built server):        ${ours.rps.toFixed(0)} req/s, p99 ${ours.p99} ms  (${ours.ok} 2xx, ${ours.other} other)`,
 		`  bare node:http + sqlite3 write:   ${yardstick.rps.toFixed(0)} req/s, p99 ${yardstick.p99} ms  (${yardstick.ok} 2xx, ${yardstick.other} other)`,
 		`  Ratio throughput ours / bare:     ${(ours.rps / yardstick.rps).toFixed(2)}×   p99 ours / bare: ${(ours.p99 / Math.max(1, yardstick.p99)).toFixed(2)}×`

@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { newAccount, signInAsNew, signInAsNewAdmin, signUpViaApi } from './support/accounts';
-import { nextRecall, revealAndGrade, seedDemo, signInAsDemo } from './support/drill';
+import { gradeRevealed, nextRecall, revealAndGrade, seedDemo, signInAsDemo } from './support/drill';
 
 /**
  * Screenshots for the README (docs/screenshots/). Run on demand, since they rewrite tracked
@@ -101,7 +101,7 @@ for (const view of [
 			await settle(page);
 			await page.screenshot({ path: `${dir}/drill-reveal${view.suffix}.png` });
 
-			await page.keyboard.press('4');
+			await gradeRevealed(page, 4);
 			for (let i = 0; i < 30; i++) {
 				if (!(await nextRecall(page))) break;
 				await revealAndGrade(page, 4);

@@ -234,11 +234,22 @@ export function applyAnswer(
 			steps = insertReturn({ ...sitting, steps }, again).steps;
 			entry.insertedStepId = again.id;
 		}
-	} else if (returning >= 0) {
+	} else if (returning >= 0 && !stillDueInSitting(answer, entry)) {
 		steps = steps.filter((_, i) => i !== returning);
 		delete entry.insertedStepId;
 	}
 	return { ...sitting, steps, log };
+}
+
+/**
+ * Whether the server's new card state brings it back within the sitting (a short-term step due
+ * soon after the grade) although the answer carries no prompt for it: the server leaves `again`
+ * out when its engine is busy, and the guessed return is kept then.
+ */
+function stillDueInSitting(answer: ReviewAnswer, entry: SittingEntry): boolean {
+	const { state, due } = answer.card;
+	if (state !== 1 && state !== 3) return false;
+	return Date.parse(due) - Date.parse(entry.at) <= RETURN_WITHIN_MINUTES * 60_000;
 }
 
 /**

@@ -47,9 +47,18 @@ export const DEFAULT_SETTINGS: Readonly<UserSettings> = Object.freeze({
 	newPerDay: 5
 });
 
+/**
+ * Zones already checked. Building a formatter is the costly part of reading a signed-in user's
+ * settings on every request, and the answer for a zone name never changes within a process; the
+ * names kept are bounded by those stored (unknown ones are not kept).
+ */
+const knownZones = new Set<string>();
+
 function isValidTimezone(zone: string): boolean {
+	if (knownZones.has(zone)) return true;
 	try {
 		new Intl.DateTimeFormat('en', { timeZone: zone });
+		knownZones.add(zone);
 		return true;
 	} catch {
 		return false;

@@ -1,6 +1,7 @@
 import { execFileSync } from 'node:child_process';
 import { expect, type Page } from '@playwright/test';
 import type { CardAnswer } from '../../../src/lib/practice/api';
+import { DEMO_LICKS } from '../../../src/lib/demo/licks';
 import { E2E_DATA_DIR } from './env';
 
 /** The demo school (accounts, licks, decks, learners' cards) seeded into the server's data folder. */
@@ -17,6 +18,40 @@ export async function signInAsDemo(page: Page, email: string): Promise<void> {
 		data: { email, password: 'demo-password-12' }
 	});
 	expect(res.status(), await res.text()).toBe(200);
+}
+
+/** Pick the signed-in learner's instrument on the settings page (its id, e.g. `trumpet`). */
+export async function chooseInstrument(page: Page, instrument: string): Promise<void> {
+	await page.goto('/settings');
+	const practice = page.getByRole('region', { name: 'Practice' });
+	await practice.getByLabel('Instrument').selectOption(instrument);
+	await practice.getByRole('button', { name: 'Save practice settings' }).click();
+	await expect(page).toHaveURL(/\/settings\?changed=practice$/);
+}
+
+/**
+ * Give the signed-in learner `count` licks of their own (the demo's lines, written by us), in a
+ * deck added to their drill: a queue of that many new licks, the same whatever the hour.
+ * Answers the cards' ids.
+ */
+export async function addOwnDeck(page: Page, count: number): Promise<string[]> {
+	const lickIds: string[] = [];
+	for (const demo of DEMO_LICKS.slice(0, count)) {
+		const res = await page.request.post('/api/licks', {
+			data: { title: demo.title, abc: demo.abc, note: demo.note }
+		});
+		expect(res.status(), await res.text()).toBe(201);
+		lickIds.push(((await res.json()) as { id: string }).id);
+	}
+	expect(lickIds).toHaveLength(count);
+	const deck = await page.request.post('/api/decks', {
+		data: { name: 'Tonight’s lines', lickIds }
+	});
+	expect(deck.status(), await deck.text()).toBe(201);
+	const deckId = ((await deck.json()) as { id: string }).id;
+	const cards = await page.request.post('/api/cards', { data: { deckId } });
+	expect(cards.status(), await cards.text()).toBe(201);
+	return ((await cards.json()) as { cardIds: string[] }).cardIds;
 }
 
 /** The card as the server has it, with its review history (newest first). */
@@ -36,41 +71,58 @@ export async function promptNow(page: Page): Promise<{ cardId: string; mode: str
 	};
 }
 
+/** The prompt on screen as `card/mode`, or `done` once the sitting has ended (read in one go). */
+function promptPlace(page: Page): Promise<string> {
+	return page.evaluate(() => {
+		if (document.querySelector('[data-testid="drill"]')?.getAttribute('data-phase') === 'done') {
+			return 'done';
+		}
+		const p = document.querySelector('[data-testid="prompt"]');
+		return p ? `${p.getAttribute('data-card')}/${p.getAttribute('data-mode')}` : '';
+	});
+}
+
 /**
  * Go through lessons (space ends each) until a recall prompt is up; answers its card id, or null
  * when the sitting ended first.
  */
 export async function nextRecall(page: Page): Promise<string | null> {
 	for (let i = 0; i < 20; i++) {
-		if ((await page.getByTestId('drill').getAttribute('data-phase')) === 'done') return null;
-		const { cardId, mode } = await promptNow(page);
+		await expect.poll(() => promptPlace(page)).not.toBe('');
+		const place = await promptPlace(page);
+		if (place === 'done') return null;
+		const [cardId, mode] = place.split('/');
 		if (mode === 'recall') return cardId;
 		await expect(page.getByTestId('notation').locator('svg').first()).toBeVisible();
 		await page.keyboard.press('Space');
-		await expect
-			.poll(async () => {
-				const phase = await page.getByTestId('drill').getAttribute('data-phase');
-				if (phase === 'done') return 'moved';
-				const p = page.getByTestId('prompt');
-				return `${await p.getAttribute('data-card')}/${await p.getAttribute('data-mode')}`;
-			})
-			.not.toBe(`${cardId}/${mode}`);
+		await expect.poll(() => promptPlace(page)).not.toBe(place);
 	}
 	throw new Error('No recall prompt within 20 lessons.');
 }
 
+/**
+ * Where the sitting is, read in one go: `done` once it has ended, else the progress line (read
+ * apart, the line could vanish between the two reads and leave a locator waiting for it).
+ */
+function sittingPlace(page: Page): Promise<string> {
+	return page.evaluate(() => {
+		const drill = document.querySelector('[data-testid="drill"]');
+		if (drill?.getAttribute('data-phase') === 'done') return 'done';
+		return document.querySelector('[data-testid="drill-progress"]')?.textContent ?? '';
+	});
+}
+
 /** Reveal the recall prompt on screen with the space bar and grade it with a number key. */
 export async function revealAndGrade(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
-	const prompt = page.getByTestId('prompt');
 	await page.keyboard.press('Space');
-	await expect(prompt).toHaveAttribute('data-revealed', 'yes');
+	await gradeRevealed(page, grade);
+}
+
+/** Grade the revealed prompt with a number key and wait until the sitting has moved on. */
+export async function gradeRevealed(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
+	await expect(page.getByTestId('prompt')).toHaveAttribute('data-revealed', 'yes');
 	await expect(page.getByRole('button', { name: /Nailed/ })).toBeVisible();
-	const progress = await page.getByTestId('drill-progress').textContent();
+	const before = await sittingPlace(page);
 	await page.keyboard.press(String(grade));
-	await expect
-		.poll(async () => {
-			if ((await page.getByTestId('drill').getAttribute('data-phase')) === 'done') return 'done';
-			return page.getByTestId('drill-progress').textContent();
-		})
-		.not.toBe(progress);
+	await expect.poll(() => sittingPlace(page)).not.toBe(before);
 }

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Card, Review } from '../../../src/lib/server/db/models/index';
+import { Card, Comment, Review } from '../../../src/lib/server/db/models/index';
 import { cardStateOf, serializeCardState } from '../../../src/lib/server/study/state';
 import type {
 	AddCardsAnswer,
@@ -14,6 +14,7 @@ import { DELETE as reviewDelete } from '../../../src/routes/api/drill/reviews/[i
 import { GET as cardGet } from '../../../src/routes/api/cards/[id]/+server';
 import { POST as cardsPost } from '../../../src/routes/api/cards/+server';
 import { GET as progressGet } from '../../../src/routes/api/drill/progress/+server';
+import { POST as commentsSeenPost } from '../../../src/routes/api/cards/[id]/comments/seen/+server';
 import { dueCounts, learnerStreak, weakestKeys } from '../../../src/lib/server/study/progress';
 import { configureEngineBudget } from '../../../src/lib/server/music/render';
 import { openTestWorld, type TestWorld } from '../support/world';
@@ -55,7 +56,8 @@ describe('every drill route needs a session', () => {
 		['DELETE /api/drill/reviews/[id]', reviewDelete],
 		['GET /api/cards/[id]', cardGet],
 		['POST /api/cards', cardsPost],
-		['GET /api/drill/progress', progressGet]
+		['GET /api/drill/progress', progressGet],
+		['POST /api/cards/[id]/comments/seen', commentsSeenPost]
 	] as const)('%s answers 401 without one', async (_name, handler) => {
 		const { status, body } = await call(handler, null, {
 			method: 'POST',
@@ -204,6 +206,26 @@ describe('POST /api/drill/reviews', () => {
 		expect(b.card).toEqual(a.card);
 		expect(await Review.count({ where: { userId: learner.id } })).toBe(1);
 		expect((await Card.findByPk(cardId))!.version).toBe(1);
+	});
+
+	it('answers a resend after a later grade of the same card with the first review, writing nothing', async () => {
+		const { learner, cardId } = await learnerWithCard();
+		const firstBody = grade(cardId, 3);
+		const first = await call(reviewPost, learner, { method: 'POST', body: firstBody });
+		expect(first.status).toBe(201);
+		const later = await call(reviewPost, learner, { method: 'POST', body: grade(cardId, 4) });
+		expect(later.status).toBe(201);
+		const resent = await call(reviewPost, learner, { method: 'POST', body: firstBody });
+		expect(resent.status).toBe(200);
+		const a = first.body as unknown as ReviewAnswer;
+		const r = resent.body as unknown as ReviewAnswer;
+		expect(r.duplicate).toBe(true);
+		expect(r.review).toEqual(a.review);
+		expect(r.card).toEqual(a.card);
+		// The card has moved on since: it is not offered again from the old answer.
+		expect(r.again).toBeNull();
+		expect(await Review.count({ where: { userId: learner.id } })).toBe(2);
+		expect((await Card.findByPk(cardId))!.version).toBe(2);
 	});
 
 	it('answers 404 for another learner’s card and writes nothing', async () => {
@@ -407,5 +429,37 @@ describe('figures other features reuse', () => {
 		});
 		expect(await learnerStreak(learner.id, new Date())).toEqual({ current: 1, longest: 1 });
 		expect(await weakestKeys(learner.id, new Date(), 2)).toEqual(['B', 'D']);
+	});
+});
+
+describe('POST /api/cards/[id]/comments/seen', () => {
+	it('marks the teacher’s comments on the learner’s card seen, and leaves the learner’s own', async () => {
+		const { learner, cardId } = await learnerWithCard();
+		const teacher = await makeUser('teacher');
+		const theirs = await Comment.create({ cardId, authorId: teacher.id, text: 'Slower in B.' });
+		const mine = await Comment.create({ cardId, authorId: learner.id, text: 'Will do.' });
+		const res = await call(commentsSeenPost, learner, { method: 'POST', params: { id: cardId } });
+		expect(res.status).toBe(204);
+		await theirs.reload();
+		await mine.reload();
+		expect(theirs.seenAt).toBeInstanceOf(Date);
+		expect(mine.seenAt).toBeNull();
+	});
+
+	it.each([
+		['another learner’s card', 'stranger'],
+		['an id that is no card', 'nonsense']
+	] as const)('answers 404 for %s and marks nothing', async (_name, who) => {
+		const { learner, cardId } = await learnerWithCard();
+		const teacher = await makeUser('teacher');
+		const comment = await Comment.create({ cardId, authorId: teacher.id, text: 'Watch bar 2.' });
+		const stranger = await makeUser();
+		const res =
+			who === 'stranger'
+				? await call(commentsSeenPost, stranger, { method: 'POST', params: { id: cardId } })
+				: await call(commentsSeenPost, learner, { method: 'POST', params: { id: 'nonsense' } });
+		expect(res.status).toBe(404);
+		await comment.reload();
+		expect(comment.seenAt).toBeNull();
 	});
 });

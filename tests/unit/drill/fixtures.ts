@@ -46,7 +46,7 @@ export function item(cardId: string, over: Partial<TodayItem> = {}): TodayItem {
 /** The server's answer to a review, with the card's tempo rung and its `again` prompt. */
 export function answer(
 	reviewId: string,
-	over: { tempo?: number | null; again?: TodayItem | null; due?: string } = {}
+	over: { tempo?: number | null; again?: TodayItem | null; due?: string; state?: number } = {}
 ): ReviewAnswer {
 	return {
 		review: {
@@ -67,7 +67,7 @@ export function answer(
 		card: {
 			id: 'card',
 			version: 2,
-			stateName: 'review',
+			stateName: over.state === 1 ? 'learning' : over.state === 3 ? 'relearning' : 'review',
 			due: over.due ?? '2026-03-05T19:00:00.000Z',
 			stability: 5,
 			difficulty: 5,
@@ -75,7 +75,7 @@ export function answer(
 			learningSteps: 0,
 			reps: 3,
 			lapses: 0,
-			state: 2,
+			state: over.state ?? 2,
 			lastReview: '2026-03-01T19:00:00.000Z',
 			tempo: over.tempo === undefined ? 120 : over.tempo,
 			introducedDay: '2026-02-20'

@@ -147,6 +147,14 @@ describe('applyAnswer', () => {
 		expect(undoLast(t)!.sitting.steps).toHaveLength(2);
 	});
 
+	it('keeps the guessed return when the server says the card is due again soon but sends no prompt', () => {
+		const s = grade(startSitting([item('a'), item('b')]), 1, 'c1');
+		const soon = new Date(now.getTime() + 10 * 60_000).toISOString();
+		const t = applyAnswer(s, 'c1', answer('r1', { again: null, state: 3, due: soon }));
+		expect(ids(t)).toEqual(ids(s));
+		expect(t.log[0].insertedStepId).toBe('a:1');
+	});
+
 	it('puts in a return the server asks for that the grade did not guess', () => {
 		const s = grade(startSitting([item('a', { previews: reviewPreviews }), item('b')]), 3, 'c1');
 		expect(s.steps).toHaveLength(2);

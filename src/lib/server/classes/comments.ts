@@ -152,18 +152,28 @@ export async function commentsForCards(
 	return out;
 }
 
-/** Mark the teacher's comments on a learner's own cards seen (the drill calls this at a reveal). */
+/**
+ * Mark the teacher's comments on a learner's own cards seen (the drill calls this when the
+ * learner reaches the reveal of that lick, where the thread is shown). Ids of cards that are not
+ * the learner's are passed over; the answer says how many of the ids were theirs.
+ * @example await markCommentsSeen(learnerId, [cardId]) // { cards: 1 }
+ */
 export async function markCommentsSeen(
 	userId: string,
 	cardIds: string[],
 	now = new Date()
-): Promise<void> {
+): Promise<{ cards: number }> {
 	const ids = cardIds.filter(isId);
-	if (ids.length === 0) return;
+	if (ids.length === 0) return { cards: 0 };
+	const own = await getDb().query<{ id: string }>(
+		'SELECT id FROM cards WHERE user_id = :userId AND id IN (:ids)',
+		{ replacements: { userId, ids }, type: QueryTypes.SELECT }
+	);
+	if (own.length === 0) return { cards: 0 };
 	await getDb().query(
 		`UPDATE comments SET seen_at = :now
-		  WHERE seen_at IS NULL AND author_id <> :userId
-		    AND card_id IN (SELECT id FROM cards WHERE user_id = :userId AND id IN (:ids))`,
-		{ replacements: { now, userId, ids } }
+		  WHERE seen_at IS NULL AND author_id <> :userId AND card_id IN (:own)`,
+		{ replacements: { now, userId, own: own.map((c) => c.id) } }
 	);
+	return { cards: own.length };
 }

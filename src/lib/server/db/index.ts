@@ -36,7 +36,66 @@ class TunedDatabase extends sqlite3.Database {
 			);
 		});
 	}
+
+	all(sql: string, ...rest: unknown[]): this {
+		const table = typeof sql === 'string' ? TABLE_INFO.exec(sql)?.[1] : undefined;
+		const callback = rest.at(-1);
+		if (table !== undefined && rest.length === 1 && typeof callback === 'function') {
+			const done = callback as DriverCallback;
+			const known = tableInfo.get(table);
+			if (known) {
+				process.nextTick(() => done.call(this, null, known));
+				return this;
+			}
+			return super.all(sql, (err: Error | null, rows: unknown[]) => {
+				if (!err) tableInfo.set(table, rows);
+				done.call(this, err, rows);
+			});
+		}
+		return super.all(sql, ...forgetOnDdl(sql, rest));
+	}
+
+	run(sql: string, ...rest: unknown[]): this {
+		return super.run(sql, ...forgetOnDdl(sql, rest));
+	}
+
+	exec(sql: string, callback?: (err: Error | null) => void): this {
+		const [after] = forgetOnDdl(sql, [callback ?? (() => {})]);
+		return super.exec(sql, after as (err: Error | null) => void);
+	}
 }
+
+/**
+ * For a statement that changes the schema: the kept column types are dropped before it runs and
+ * again when it has run (a look-up in between could have read the old schema).
+ */
+function forgetOnDdl(sql: unknown, rest: unknown[]): unknown[] {
+	if (typeof sql !== 'string' || !DDL.test(sql)) return rest;
+	tableInfo.clear();
+	const callback = rest.at(-1);
+	if (typeof callback !== 'function') return rest;
+	return [
+		...rest.slice(0, -1),
+		function (this: unknown, ...args: unknown[]) {
+			tableInfo.clear();
+			return (callback as (...a: unknown[]) => unknown).apply(this, args);
+		}
+	];
+}
+
+/**
+ * `PRAGMA table_info` answers, by table, shared by every connection of this process. Sequelize's
+ * SQLite dialect asks for the column types of every table a model query reads before running
+ * it (to turn DATETIME text into dates), one extra round trip per table per query, and opens a
+ * new connection per transaction; the schema changes only through DDL, so the answers are kept
+ * until a statement of this process creates, alters or drops something. (Another process changing
+ * the schema of a running server's file is not supported: the server migrates at its own start.)
+ */
+const tableInfo = new Map<string, unknown[]>();
+const TABLE_INFO = /^PRAGMA table_info\(`([^`]+)`\)$/;
+const DDL = /\b(CREATE|ALTER|DROP)\s+(TABLE|INDEX|UNIQUE|VIEW|TRIGGER)\b/i;
+
+type DriverCallback = (this: unknown, err: Error | null, rows?: unknown[]) => void;
 
 /** The driver module Sequelize loads: sqlite3 with `Database` replaced by the tuned one. */
 const tunedSqlite3 = { ...sqlite3, Database: TunedDatabase };
@@ -116,6 +175,47 @@ function serializeTransactions(sequelize: Sequelize, strict: boolean): void {
 	}
 }
 
+/** Where the dialect keeps the one connection every transaction of this process uses. */
+const WRITER = 'transactions';
+
+interface SqliteConnection {
+	close(callback?: (err: Error | null) => void): void;
+}
+
+interface SqliteConnectionManager {
+	connections: Record<string, SqliteConnection>;
+	getConnection(options?: { uuid?: string }): Promise<SqliteConnection>;
+	releaseConnection(connection: SqliteConnection, force?: boolean): void;
+	destroyConnection(connection: SqliteConnection): Promise<void>;
+}
+
+/**
+ * One connection for all of this process's transactions, kept open between them. The SQLite
+ * dialect opens a new connection for every transaction and closes it after (a file open and our
+ * pragmas each time, inside the one-at-a-time section above, so every write waited for them);
+ * transactions already run one at a time here, so one connection serves them all. A transaction
+ * that leaves it in doubt (a failed commit or rollback: Sequelize then destroys the connection)
+ * closes it, and the next transaction opens a fresh one.
+ */
+function shareTransactionConnection(sequelize: Sequelize): void {
+	const manager = sequelize.connectionManager as unknown as SqliteConnectionManager;
+	const get = manager.getConnection.bind(manager);
+	const release = manager.releaseConnection.bind(manager);
+	const destroy = manager.destroyConnection.bind(manager);
+	const isWriter = (c: SqliteConnection) => manager.connections[WRITER] === c;
+	manager.getConnection = (options = {}) =>
+		options.uuid && options.uuid !== 'default' ? get({ ...options, uuid: WRITER }) : get(options);
+	manager.releaseConnection = (connection, force) => {
+		if (isWriter(connection) && !force) return;
+		release(connection, force);
+	};
+	manager.destroyConnection = async (connection) => {
+		if (!isWriter(connection)) return destroy(connection);
+		delete manager.connections[WRITER];
+		await new Promise<void>((resolve) => connection.close(() => resolve()));
+	};
+}
+
 let current: Sequelize | null = null;
 
 /**
@@ -140,6 +240,7 @@ export function openDb(url: string, options: { strict?: boolean } = {}): Sequeli
 			logging: false
 		});
 		serializeTransactions(sequelize, options.strict ?? false);
+		if (storage !== ':memory:') shareTransactionConnection(sequelize);
 	} else if (/^postgres(ql)?:\/\//.test(url)) {
 		sequelize = new Sequelize(url, { dialect: 'postgres', logging: false });
 	} else {

@@ -173,9 +173,19 @@ export async function recordReview(
 	const learner = await loadLearner(actor);
 	if (!learner) throw new StudyError(404, 'No such learner.');
 	const db = getDb();
-	const known = await Review.findOne({ where: { userId: learner.id, clientId: input.clientId } });
-	if (known) return { status: 200, answer: await answerFor(learner, known, true, now) };
-	if (!isId(input.cardId)) throw new StudyError(404, 'No such card.');
+	// A resend is rare: instead of a look-up before every grade, the review's unique key
+	// (learner, clientId) refuses the second insert and the stored review is answered then.
+	const resent = async () => {
+		const known = await Review.findOne({ where: { userId: learner.id, clientId: input.clientId } });
+		return known
+			? { status: 200 as const, answer: await answerFor(learner, known, true, now) }
+			: null;
+	};
+	if (!isId(input.cardId)) {
+		const known = await resent();
+		if (known) return known;
+		throw new StudyError(404, 'No such card.');
+	}
 
 	for (let attempt = 0; attempt < ATTEMPTS; attempt++) {
 		// The card with what sets its target tempo, in one query.
@@ -186,8 +196,14 @@ export async function recordReview(
 				{ model: Assignment, attributes: ['targetTempo'] }
 			]
 		})) as (Card & { Lick?: Lick; Assignment?: Assignment | null }) | null;
-		if (!card) throw new StudyError(404, 'No such card.');
+		if (!card) {
+			const known = await resent();
+			if (known) return known;
+			throw new StudyError(404, 'No such card.');
+		}
 		if (card.quality !== input.quality) {
+			const known = await resent();
+			if (known) return known;
 			throw new StudyError(
 				422,
 				`This card is over “${card.quality}”, not “${input.quality}”.`,
@@ -263,14 +279,15 @@ export async function recordReview(
 				if (changed !== 1) throw new VersionConflict();
 				return row;
 			});
-			return { status: 201, answer: await answerFor(learner, review, false, now) };
+			return {
+				status: 201,
+				answer: await answerFor(learner, review, false, now, card.version + 1)
+			};
 		} catch (error) {
 			if (error instanceof VersionConflict) continue;
 			if (error instanceof UniqueConstraintError) {
-				const same = await Review.findOne({
-					where: { userId: learner.id, clientId: input.clientId }
-				});
-				if (same) return { status: 200, answer: await answerFor(learner, same, true, now) };
+				const known = await resent();
+				if (known) return known;
 			}
 			throw error;
 		}
@@ -319,24 +336,32 @@ async function loadContext(
 	return { dueByDay, siblingDays, timeZone: learner.timeZone, dayStartHour: learner.dayStartHour };
 }
 
-/** The answer for a stored review: built from the row alone, so a resend gets the same. */
+/**
+ * The answer for a stored review: built from the row alone, so a resend gets the same.
+ * `cardVersion` is the card's version when the caller has just written it (no need to read it).
+ */
 async function answerFor(
 	learner: Learner,
 	review: Review,
 	duplicate: boolean,
-	now: Date
+	now: Date,
+	cardVersion?: number
 ): Promise<ReviewAnswer> {
 	const { state, version } = parseCardState(review.stateAfter);
 	let again = null;
 	if (!review.undoneAt && (state.state === 1 || state.state === 3)) {
 		const { end } = learnerDay(learner, now);
-		const current = await Card.findByPk(review.cardId, { attributes: ['version'] });
-		if (current && current.version === version && new Date(state.due) < end) {
+		const current =
+			cardVersion ??
+			(await Card.findByPk(review.cardId, { attributes: ['version'] }))?.version ??
+			null;
+		// The card comes back today only if nothing has changed it since this review.
+		if (current === version && new Date(state.due) < end) {
 			try {
-				again = await promptForCard(learner, review.cardId, now);
+				// Not waiting for a busy engine: the grade is saved already, and without `again` the
+				// client shows the card again from the prompt it already holds.
+				again = await promptForCard(learner, review.cardId, now, 'refuse');
 			} catch (error) {
-				// The grade is saved whatever happens here; with the engine busy, the client
-				// shows the card again from the prompt it already holds.
 				if (!(error instanceof StudyError && error.status === 503)) throw error;
 			}
 		}

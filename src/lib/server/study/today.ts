@@ -232,14 +232,15 @@ export async function buildToday(actor: Actor, now: Date): Promise<TodayAnswer> 
 export async function promptForCard(
 	learner: Learner,
 	cardId: string,
-	now: Date
+	now: Date,
+	whenBusy: 'wait' | 'refuse' = 'wait'
 ): Promise<TodayItem | null> {
 	const [card] = await loadCards(learner.id, 'AND id = :cardId', { cardId });
 	if (!card) return null;
 	const assignments = card.assignmentId
 		? await Assignment.findAll({ where: { id: card.assignmentId } })
 		: [];
-	const [item] = await promptsFor(learner, [card], now, assignments);
+	const [item] = await promptsFor(learner, [card], now, assignments, whenBusy);
 	return item ?? null;
 }
 
@@ -248,7 +249,8 @@ async function promptsFor(
 	learner: Learner,
 	cards: readonly LoadedCard[],
 	now: Date,
-	assignments: readonly Assignment[]
+	assignments: readonly Assignment[],
+	whenBusy: 'wait' | 'refuse' = 'wait'
 ): Promise<TodayItem[]> {
 	if (cards.length === 0) return [];
 	const lickIds = [...new Set(cards.map((c) => c.lickId))];
@@ -292,7 +294,7 @@ async function promptsFor(
 		const rendered = await renderLickVariant(
 			{ abc: lick.abc, versions: own },
 			{ to: key, quality: card.quality as QualityId, instrument: learner.instrument },
-			'wait'
+			whenBusy
 		);
 		if (!rendered.ok) {
 			if (rendered.status === 503) {

@@ -67,6 +67,8 @@ test.beforeAll(() => {
 test('the demo teacher’s library shows the demo licks, and a lick written in the editor is checked in place and saved', async ({
 	page
 }) => {
+	// Writing, checking, saving, reloading and overriding the home key: a long walk on two cores.
+	test.slow();
 	await signInAsDemoTeacher(page);
 	await page.goto('/library');
 	const table = page.getByTestId('library-table');
@@ -112,6 +114,24 @@ test('the demo teacher’s library shows the demo licks, and a lick written in t
 	await page.getByRole('button', { name: 'Discard them' }).click();
 	await expect(page.getByLabel('Title')).toHaveValue('Evening walk');
 	await shoot(page, 'lick-editor');
+
+	// The home key and quality follow the abc unless overridden; an override is kept.
+	const homeKey = page.getByLabel('Home key');
+	await expect(homeKey).toHaveValue('');
+	await expect(homeKey.locator('option').first()).toHaveText('As the abc reads it (F)');
+	await expect(page.getByLabel('Home chord quality').locator('option').first()).toContainText(
+		'As the first chord reads it (Dominant'
+	);
+	await homeKey.selectOption('Bb');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByTestId('save-state')).toHaveText('Saved.');
+	await page.reload();
+	await expect(page.getByLabel('Home key')).toHaveValue('Bb');
+	await page.getByLabel('Home key').selectOption('');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByTestId('save-state')).toHaveText('Saved.');
+	await page.reload();
+	await expect(page.getByLabel('Home key')).toHaveValue('');
 });
 
 test('a reference recording uploads and plays', async ({ page }) => {
@@ -212,9 +232,12 @@ test('a public lick’s share link opens for a visitor, who can hear it in anoth
 	page,
 	browser
 }) => {
+	// Two browsers, a save and a transposition for a transposing instrument.
+	test.slow();
 	await signInAsDemoTeacher(page);
 	await page.goto(lickUrl);
 	await page.getByLabel('Who sees it').selectOption('public');
+	await page.getByLabel('Teaching note (Markdown)').fill('Lean on the E♭, the ♭7 of F7.');
 	await page.getByRole('button', { name: 'Save changes' }).click();
 	const link = page.getByTestId('share-link');
 	await expect(link).toBeVisible();
@@ -229,6 +252,9 @@ test('a public lick’s share link opens for a visitor, who can hear it in anoth
 	await visitor.getByLabel('Instrument').selectOption('alto-sax');
 	await visitor.getByRole('button', { name: 'Show this key' }).click();
 	await expect(visitor.getByTestId('try-result')).toContainText('sounds in B♭');
+	// The note's names follow the key on screen: the alto reads concert B♭ as G.
+	await expect(visitor.getByTestId('teaching-note')).toHaveText('Lean on the F, the ♭7 of G7.');
+	await expect(visitor.getByTestId('note-key')).toContainText('moved to G, the key shown below');
 	// The recording is served to anyone holding the link, in byte ranges.
 	const src = (await visitor.locator('audio').getAttribute('src'))!;
 	const ranged = await visitor.request.get(src, { headers: { range: 'bytes=0-3' } });

@@ -30,3 +30,25 @@ export function comesBackIn(due: string | undefined, now: Date): string {
 export function breakDue(since: Date, now: Date, minutes = 25): boolean {
 	return now.getTime() - since.getTime() >= minutes * 60_000;
 }
+
+/**
+ * What the drill says under a teaching note about the key its names are in: the note is
+ * written about the lick's own key, and the server moves what it safely can into the prompt's.
+ * Null when there is nothing to say.
+ * @example noteNamesLine('moved', 'Eb') // 'Note names moved to Eb, the key of this prompt.'
+ */
+export function noteNamesLine(
+	noteNames: 'moved' | 'some-moved' | 'home' | 'none',
+	writtenKey: string
+): string | null {
+	switch (noteNames) {
+		case 'moved':
+			return `Note names moved to ${writtenKey}, the key of this prompt.`;
+		case 'some-moved':
+			return `Names with a sharp, a flat or a chord symbol are moved to ${writtenKey}; single letters stay as written, in the lick's own key.`;
+		case 'home':
+			return "Single note letters here are as written, in the lick's own key.";
+		case 'none':
+			return null;
+	}
+}

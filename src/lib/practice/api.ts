@@ -47,8 +47,18 @@ export interface TodayItem {
 	swingRatio: number;
 	/** The lick's own abc at concert pitch, as its author wrote it. */
 	abc: string;
-	/** The lick's teaching note (Markdown). */
+	/**
+	 * The lick's teaching note (Markdown), its note and chord names moved into the written key
+	 * of this prompt (see `noteNames`).
+	 */
 	note: string;
+	/**
+	 * How the note's names relate to the key shown: `moved` (every name moved), `some-moved`
+	 * (names with an accidental or a chord suffix moved; single letters, which may be words,
+	 * left as written in the lick's home key), `home` (only single letters, left in the home
+	 * key), `none` (no note names, or the prompt is in the home key).
+	 */
+	noteNames: 'moved' | 'some-moved' | 'home' | 'none';
 	/** True the first time the card comes up: teach it (notation and sound first), then grade. */
 	isNew: boolean;
 	state: CardStateName;

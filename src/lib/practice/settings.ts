@@ -187,6 +187,41 @@ export const settingsSchema = z.object({
 	newPerDay: wholeNumber(SETTINGS_LIMITS.newPerDay, MESSAGES.newPerDay)
 }) satisfies z.ZodType<UserSettings>;
 
+/**
+ * The Weekly class summary, a teacher's mail: whether it comes, and on which day of the week (ISO
+ * weekday, 1 Monday … 7 Sunday). Columns of their own on `users`, saved apart from the practice
+ * settings because only teachers have it.
+ */
+export type SummaryChoice = {
+	summaryEnabled: boolean;
+	summaryWeekday: number;
+};
+
+export const WEEKDAYS = [
+	'Monday',
+	'Tuesday',
+	'Wednesday',
+	'Thursday',
+	'Friday',
+	'Saturday',
+	'Sunday'
+] as const;
+
+export const DEFAULT_SUMMARY_CHOICE: Readonly<SummaryChoice> = Object.freeze({
+	summaryEnabled: true,
+	summaryWeekday: 1
+});
+
+const WEEKDAY_MESSAGE = 'Choose a day of the week.';
+
+/** The summary choice form: one schema for the page and its action. */
+export const summaryChoiceSchema = z.object({
+	summaryEnabled: z.boolean().default(DEFAULT_SUMMARY_CHOICE.summaryEnabled),
+	summaryWeekday: wholeNumber({ min: 1, max: WEEKDAYS.length }, WEEKDAY_MESSAGE).default(
+		DEFAULT_SUMMARY_CHOICE.summaryWeekday
+	)
+}) satisfies z.ZodType<SummaryChoice>;
+
 export type SettingsInputResult =
 	{ ok: true; settings: UserSettings } | { ok: false; field: keyof UserSettings; message: string };
 

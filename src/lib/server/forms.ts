@@ -94,7 +94,10 @@ export function refuseField<S extends Schema>(
 ) {
 	if (!(field in form.data)) return say(form, text, status, ...secret);
 	form.valid = false;
-	(form.errors as Record<string, string[]>)[field] = [text];
+	// A list field (ticked boxes) keeps its own errors under `_errors`, as superforms reads them.
+	(form.errors as Record<string, unknown>)[field] = Array.isArray(form.data[field])
+		? { _errors: [text] }
+		: [text];
 	return fail(status, { form: withoutSecrets(form, secret) });
 }
 

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Card, Comment, Review } from '../../../src/lib/server/db/models/index';
+import { Card, Comment, Lick, Review } from '../../../src/lib/server/db/models/index';
 import { cardStateOf, serializeCardState } from '../../../src/lib/server/study/state';
 import type {
 	AddCardsAnswer,
@@ -18,6 +18,7 @@ import { POST as commentsSeenPost } from '../../../src/routes/api/cards/[id]/com
 import { dueCounts, learnerStreak, weakestKeys } from '../../../src/lib/server/study/progress';
 import { configureEngineBudget } from '../../../src/lib/server/music/render';
 import { openTestWorld, type TestWorld } from '../support/world';
+import { Interval, Note } from 'tonal';
 import { call, makeClass, makeDeck, makeLick, makeUser } from './world';
 
 let world: TestWorld;
@@ -170,6 +171,25 @@ describe('GET /api/drill/today', () => {
 		expect(new Date(item.previews[1]) < new Date(item.previews[4])).toBe(true);
 		expect(today.counts).toMatchObject({ due: 0, new: 1, doneToday: 0 });
 		expect(today.backlog).toMatchObject({ overdue: 0, catchUpDays: 0 });
+	});
+
+	it('moves the note names of the teaching note into the written key of the prompt', async () => {
+		const { learner, lick } = await learnerWithCard({ instrument: 'alto-sax' });
+		await Lick.update(
+			{ note: 'Lean on the B♭, then let the C7 pull home.' },
+			{ where: { id: lick.id } }
+		);
+		const item = ((await call(todayGet, learner)).body as unknown as TodayAnswer).items[0];
+		const to = item.variant.writtenTonic;
+		// Reference: tonal 6.5.1, the interval between the tonics applied to each name.
+		const by = Interval.distance('F', to);
+		const move = (name: string) => Note.transpose(name, by).replace('b', '♭').replace('#', '♯');
+		if (to === 'F') {
+			expect(item.noteNames).toBe('none');
+		} else {
+			expect(item.note).toBe(`Lean on the ${move('Bb')}, then let the ${move('C')}7 pull home.`);
+			expect(item.noteNames).toBe('moved');
+		}
 	});
 
 	it('shows nothing of another learner’s cards', async () => {

@@ -16,6 +16,7 @@ export function item(cardId: string, over: Partial<TodayItem> = {}): TodayItem {
 		swingRatio: 2,
 		abc: 'X:1\nK:C\nc',
 		note: '',
+		noteNames: 'none',
 		isNew: false,
 		state: 'review',
 		due: '2026-03-01T10:00:00.000Z',

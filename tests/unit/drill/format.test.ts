@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { breakDue, comesBackIn } from '../../../src/lib/drill/format';
+import { breakDue, comesBackIn, noteNamesLine } from '../../../src/lib/drill/format';
 
 const now = new Date('2026-03-01T19:00:00Z');
 const after = (minutes: number) => new Date(now.getTime() + minutes * 60_000).toISOString();
@@ -30,5 +30,14 @@ describe('breakDue', () => {
 		[40, true]
 	])('after %d minutes of playing a break is due: %s', (minutes, due) => {
 		expect(breakDue(now, new Date(now.getTime() + minutes * 60_000))).toBe(due);
+	});
+});
+
+describe('noteNamesLine', () => {
+	it('says which key the names of a teaching note are in, and nothing when there is no news', () => {
+		expect(noteNamesLine('moved', 'E♭')).toBe('Note names moved to E♭, the key of this prompt.');
+		expect(noteNamesLine('some-moved', 'E♭')).toMatch(/moved to E♭; single letters stay/);
+		expect(noteNamesLine('home', 'E♭')).toMatch(/lick's own key/);
+		expect(noteNamesLine('none', 'E♭')).toBeNull();
 	});
 });

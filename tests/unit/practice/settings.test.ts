@@ -2,8 +2,11 @@ import { describe, expect, test } from 'vitest';
 import { INSTRUMENT_IDS } from '../../../src/lib/music/instruments';
 import {
 	DEFAULT_SETTINGS,
+	DEFAULT_SUMMARY_CHOICE,
 	normalizeSettings,
 	readSettingsInput,
+	summaryChoiceSchema,
+	WEEKDAYS,
 	type UserSettings
 } from '../../../src/lib/practice/settings';
 
@@ -189,5 +192,22 @@ describe('normalizeSettings', () => {
 
 	test('the practice day starts at 4 and five new licks come a day unless chosen otherwise', () => {
 		expect(DEFAULT_SETTINGS).toMatchObject({ dayStartHour: 4, newPerDay: 5 });
+	});
+});
+
+describe('the Weekly class summary choice', () => {
+	test('ISO weekdays 1 (Monday) to 7 (Sunday) are the only days; nothing sent means the defaults', () => {
+		// ISO 8601 numbers the days of the week 1 = Monday … 7 = Sunday.
+		expect([WEEKDAYS[0], WEEKDAYS[6]]).toEqual(['Monday', 'Sunday']);
+		expect(summaryChoiceSchema.parse({})).toEqual(DEFAULT_SUMMARY_CHOICE);
+		expect(summaryChoiceSchema.parse({ summaryEnabled: false, summaryWeekday: 7 })).toEqual({
+			summaryEnabled: false,
+			summaryWeekday: 7
+		});
+		for (const day of [0, 8, 2.5]) {
+			const result = summaryChoiceSchema.safeParse({ summaryEnabled: true, summaryWeekday: day });
+			expect(result.success).toBe(false);
+			expect(result.error?.issues[0].message).toBe('Choose a day of the week.');
+		}
 	});
 });

@@ -1,4 +1,5 @@
 import { QueryTypes } from 'sequelize';
+import { NEW_PER_DAY_MAX, TEMPO_MAX, TEMPO_MIN } from '../../forms/classes';
 import { QUALITY_IDS } from '../../music/types';
 import { addDays } from '../../practice/day';
 import { getDb } from '../db/index';
@@ -58,9 +59,7 @@ export interface AssignmentInput {
 	paused?: unknown;
 }
 
-export const NEW_PER_DAY_MAX = 50;
-export const TEMPO_MIN = 20;
-export const TEMPO_MAX = 400;
+export { NEW_PER_DAY_MAX, TEMPO_MAX, TEMPO_MIN };
 
 const dayPattern = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -70,11 +69,13 @@ export function isDay(value: unknown): value is string {
 }
 
 type Read<T> = { ok: true; value: T } | { ok: false; field: string; message: string };
+type Reader<T> = (value: unknown) => Read<T>;
+const ok = <T>(value: T): Read<T> => ({ ok: true, value });
 const bad = (field: string, message: string) => ({ ok: false as const, field, message });
 
 /** Key tonics: absent or null for all twelve, else 1–12 distinct keys. */
 export function readKeys(value: unknown): Read<string[] | null> {
-	if (value === undefined || value === null) return { ok: true, value: null };
+	if (value === undefined || value === null) return ok(null);
 	if (!Array.isArray(value) || value.length === 0 || value.length > 12) {
 		return bad(
 			'keys',
@@ -93,11 +94,11 @@ export function readKeys(value: unknown): Read<string[] | null> {
 		keys.push(key);
 	}
 	// All twelve is stored as null, the contract's "all twelve".
-	return { ok: true, value: keys.length === 12 ? null : keys };
+	return ok(keys.length === 12 ? null : keys);
 }
 
 export function readQualities(value: unknown): Read<string[]> {
-	if (value === undefined || value === null) return { ok: true, value: [] };
+	if (value === undefined || value === null) return ok([]);
 	if (!Array.isArray(value) || value.length > QUALITY_IDS.length) {
 		return bad('qualities', `Send qualities as a list drawn from ${QUALITY_IDS.join(' ')}.`);
 	}
@@ -111,22 +112,31 @@ export function readQualities(value: unknown): Read<string[]> {
 		}
 		if (!out.includes(item)) out.push(item);
 	}
-	return { ok: true, value: out };
+	return ok(out);
 }
 
-function readInt(
-	value: unknown,
-	field: string,
-	min: number,
-	max: number,
-	what: string
-): Read<number> {
-	const n = typeof value === 'string' && /^\d+$/.test(value.trim()) ? Number(value) : value;
-	if (typeof n !== 'number' || !Number.isInteger(n) || n < min || n > max) {
-		return bad(field, `${what} must be a whole number from ${min} to ${max}.`);
-	}
-	return { ok: true, value: n };
-}
+/** A calendar day, refused with `message` under `field`. */
+const readDay =
+	(field: string, message: string): Reader<string> =>
+	(value) =>
+		isDay(value) ? ok(value) : bad(field, message);
+
+/** A whole number from `min` to `max` (a form's digits count as one), named `what` when refused. */
+const readInt =
+	(field: string, min: number, max: number, what: string): Reader<number> =>
+	(value) => {
+		const n = typeof value === 'string' && /^\d+$/.test(value.trim()) ? Number(value) : value;
+		if (typeof n !== 'number' || !Number.isInteger(n) || n < min || n > max) {
+			return bad(field, `${what} must be a whole number from ${min} to ${max}.`);
+		}
+		return ok(n);
+	};
+
+/** An optional field: absent, null or empty means none, anything else goes through `read`. */
+const orNone =
+	<T>(read: Reader<T>): Reader<T | null> =>
+	(value) =>
+		value === undefined || value === null || value === '' ? ok(null) : read(value);
 
 interface Checked {
 	startDate: string;
@@ -137,62 +147,36 @@ interface Checked {
 	targetTempo: number | null;
 }
 
-/** Check every field of an assignment (a full one, or an edit over `base`). */
+/** How each field of an assignment is read, in the order its refusals come. */
+const assignmentReaders: { [K in keyof Checked]: Reader<Checked[K]> } = {
+	startDate: readDay('startDate', 'Give the start date as YYYY-MM-DD.'),
+	endDate: orNone(readDay('endDate', 'Give the end date as YYYY-MM-DD, or leave it out.')),
+	newPerDay: readInt('newPerDay', 1, NEW_PER_DAY_MAX, 'New licks a day'),
+	keys: readKeys,
+	qualities: readQualities,
+	targetTempo: orNone(readInt('targetTempo', TEMPO_MIN, TEMPO_MAX, 'The target tempo'))
+};
+
+/**
+ * Check every field of an assignment: a full one, or an edit over `base` (a field not sent keeps
+ * its stored value; one a creation must have is refused when missing).
+ */
 function readAssignment(input: AssignmentInput, base?: Checked): Read<Checked> {
-	const pick = <K extends keyof AssignmentInput>(k: K) =>
-		input[k] === undefined && base ? undefined : input[k];
-	let startDate = base?.startDate;
-	if (pick('startDate') !== undefined || !base) {
-		if (!isDay(input.startDate)) return bad('startDate', 'Give the start date as YYYY-MM-DD.');
-		startDate = input.startDate;
-	}
-	let endDate = base?.endDate ?? null;
-	if (input.endDate !== undefined) {
-		if (input.endDate === null || input.endDate === '') endDate = null;
-		else if (!isDay(input.endDate))
-			return bad('endDate', 'Give the end date as YYYY-MM-DD, or leave it out.');
-		else endDate = input.endDate;
-	}
-	let newPerDay = base?.newPerDay;
-	if (pick('newPerDay') !== undefined || !base) {
-		const read = readInt(input.newPerDay, 'newPerDay', 1, NEW_PER_DAY_MAX, 'New licks a day');
-		if (!read.ok) return read;
-		newPerDay = read.value;
-	}
-	let keys = base ? base.keys : null;
-	if (input.keys !== undefined || !base) {
-		const read = readKeys(input.keys);
-		if (!read.ok) return read;
-		keys = read.value;
-	}
-	let qualities = base?.qualities ?? [];
-	if (input.qualities !== undefined || !base) {
-		const read = readQualities(input.qualities);
-		if (!read.ok) return read;
-		qualities = read.value;
-	}
-	let targetTempo = base ? base.targetTempo : null;
-	if (input.targetTempo !== undefined) {
-		if (input.targetTempo === null || input.targetTempo === '') targetTempo = null;
-		else {
-			const read = readInt(
-				input.targetTempo,
-				'targetTempo',
-				TEMPO_MIN,
-				TEMPO_MAX,
-				'The target tempo'
-			);
-			if (!read.ok) return read;
-			targetTempo = read.value;
+	const checked: Partial<Record<keyof Checked, unknown>> = {};
+	for (const name of Object.keys(assignmentReaders) as (keyof Checked)[]) {
+		if (input[name] === undefined && base) {
+			checked[name] = base[name];
+			continue;
 		}
+		const read = assignmentReaders[name](input[name]);
+		if (!read.ok) return read;
+		checked[name] = read.value;
 	}
-	if (endDate !== null && endDate < startDate!) {
+	const value = checked as Checked;
+	if (value.endDate !== null && value.endDate < value.startDate) {
 		return bad('endDate', 'The end date comes before the start date.');
 	}
-	return {
-		ok: true,
-		value: { startDate: startDate!, endDate, newPerDay: newPerDay!, keys, qualities, targetTempo }
-	};
+	return ok(value);
 }
 
 interface AssignmentRow {
@@ -240,10 +224,17 @@ function toView(row: AssignmentRow): AssignmentView {
 	};
 }
 
-const assignmentSelect = `
-	SELECT a.id, a.class_id, a.deck_id, d.name AS deck_name, a.start_date, a.end_date,
+/** SQL counting the licks of the deck whose id is `deckId` (a column). */
+const lickCountOf = (deckId: string) =>
+	`(SELECT COUNT(*) FROM deck_licks dl WHERE dl.deck_id = ${deckId})`;
+
+/** The columns an `AssignmentRow` is read from (assignment `a`, its deck `d`). */
+const assignmentColumns = `a.id, a.class_id, a.deck_id, d.name AS deck_name, a.start_date, a.end_date,
 	       a.new_per_day, a.keys, a.qualities, a.target_tempo, a.paused_at, a.created_at,
-	       (SELECT COUNT(*) FROM deck_licks dl WHERE dl.deck_id = a.deck_id) AS lick_count
+	       ${lickCountOf('a.deck_id')} AS lick_count`;
+
+const assignmentSelect = `
+	SELECT ${assignmentColumns}
 	  FROM assignments a JOIN decks d ON d.id = a.deck_id`;
 
 async function viewOf(id: string): Promise<AssignmentView> {
@@ -411,10 +402,7 @@ export interface AssignedDeck {
  */
 export async function decksAssignedTo(userId: string): Promise<AssignedDeck[]> {
 	const rows = await getDb().query<AssignmentRow & { class_name: string; teacher_name: string }>(
-		`SELECT a.id, a.class_id, a.deck_id, d.name AS deck_name, a.start_date, a.end_date,
-		        a.new_per_day, a.keys, a.qualities, a.target_tempo, a.paused_at, a.created_at,
-		        (SELECT COUNT(*) FROM deck_licks dl WHERE dl.deck_id = a.deck_id) AS lick_count,
-		        c.name AS class_name, u.name AS teacher_name
+		`SELECT ${assignmentColumns}, c.name AS class_name, u.name AS teacher_name
 		   FROM class_members m
 		   JOIN classes c ON c.id = m.class_id
 		   JOIN users u ON u.id = c.teacher_id
@@ -425,23 +413,9 @@ export async function decksAssignedTo(userId: string): Promise<AssignedDeck[]> {
 		{ replacements: { userId }, type: QueryTypes.SELECT }
 	);
 	return rows.map((row) => {
-		const view = toView(row);
-		return {
-			assignmentId: view.id,
-			deckId: view.deckId,
-			deckName: view.deckName,
-			lickCount: view.lickCount,
-			classId: view.classId,
-			className: row.class_name,
-			teacherName: row.teacher_name,
-			startDate: view.startDate,
-			endDate: view.endDate,
-			newPerDay: view.newPerDay,
-			keys: view.keys,
-			qualities: view.qualities,
-			targetTempo: view.targetTempo,
-			paused: view.paused
-		};
+		// A learner sees the plan, not when it was made or paused.
+		const { id, pausedAt: _pausedAt, createdAt: _createdAt, ...view } = toView(row);
+		return { assignmentId: id, ...view, className: row.class_name, teacherName: row.teacher_name };
 	});
 }
 
@@ -465,7 +439,7 @@ export async function assignableDecks(
 ): Promise<{ id: string; name: string; lickCount: number }[]> {
 	if (!canTeach(actor)) return [];
 	const rows = await getDb().query<{ id: string; name: string; lick_count: unknown }>(
-		`SELECT d.id, d.name, (SELECT COUNT(*) FROM deck_licks dl WHERE dl.deck_id = d.id) AS lick_count
+		`SELECT d.id, d.name, ${lickCountOf('d.id')} AS lick_count
 		   FROM decks d WHERE d.owner_id = :ownerId ORDER BY d.name, d.id`,
 		{ replacements: { ownerId: actor.id }, type: QueryTypes.SELECT }
 	);

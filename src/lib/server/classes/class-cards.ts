@@ -1,6 +1,6 @@
 import { Op, QueryTypes, literal, type Transaction } from 'sequelize';
 import { getDb } from '../db/index';
-import { Card } from '../db/models/index';
+import { Assignment, Card, ClassMember } from '../db/models/index';
 
 /**
  * The cards a class makes, per the drill contract: every member × deck lick × (home quality +
@@ -21,17 +21,21 @@ interface DeckLickRow {
 
 /**
  * Create the cards of one assignment for `userIds` (insert-or-ignore), and put back to work any of
- * this assignment's new cards that were retired (a learner who left and came back).
+ * this assignment's new cards that were retired (a learner who left and came back) and that it
+ * still asks for (a quality dropped from the assignment stays retired). With `onlyLicks`, only
+ * those licks of the deck are concerned (licks just added to it); their place in the queue is
+ * still their place in the deck.
  * @example await createAssignmentCards({ id, deckId, qualities: ['m7'] }, [learnerId], now, t) // 8 for 4 licks
  */
 export async function createAssignmentCards(
 	assignment: { id: string; deckId: string; qualities: string[] },
 	userIds: string[],
 	now: Date,
-	transaction: Transaction
+	transaction: Transaction,
+	onlyLicks?: readonly string[]
 ): Promise<number> {
-	if (userIds.length === 0) return 0;
-	const licks = await getDb().query<DeckLickRow>(
+	if (userIds.length === 0 || onlyLicks?.length === 0) return 0;
+	const deckLicks = await getDb().query<DeckLickRow>(
 		`SELECT dl.lick_id, dl.position, l.home_quality
 		   FROM deck_licks dl JOIN licks l ON l.id = dl.lick_id
 		  WHERE dl.deck_id = :deckId
@@ -47,7 +51,8 @@ export async function createAssignmentCards(
 		due: Date;
 	}> = [];
 	for (const userId of userIds) {
-		licks.forEach((lick, index) => {
+		deckLicks.forEach((lick, index) => {
+			if (onlyLicks && !onlyLicks.includes(lick.lick_id)) return;
 			const qualities = [
 				lick.home_quality,
 				...assignment.qualities.filter((q) => q !== lick.home_quality)
@@ -70,20 +75,60 @@ export async function createAssignmentCards(
 		// (user, lick, quality) decides, so two processes cannot make a card twice.
 		await Card.bulkCreate(rows.slice(i, i + CHUNK), { ignoreDuplicates: true, transaction });
 	}
+	const asked = assignment.qualities.length ? assignment.qualities : ['-'];
 	await Card.update(
 		{ retiredAt: null, version: literal('version + 1') as unknown as number },
 		{
 			where: {
 				assignmentId: assignment.id,
 				userId: { [Op.in]: userIds },
+				...(onlyLicks ? { lickId: { [Op.in]: [...onlyLicks] } } : {}),
 				state: 0,
 				introducedDay: null,
-				retiredAt: { [Op.ne]: null }
+				retiredAt: { [Op.ne]: null },
+				[Op.or]: [
+					{ quality: { [Op.in]: asked } },
+					literal('cards.quality = (SELECT l.home_quality FROM licks l WHERE l.id = cards.lick_id)')
+				]
 			},
 			transaction
 		}
 	);
 	return rows.length;
+}
+
+/**
+ * Licks just put into a deck reach every class the deck is assigned to: each member gets their
+ * cards as if the licks had been in the deck when it was assigned (the assignment's qualities,
+ * the lick's place in the deck; keys and pace are the assignment's, read by the drill). Paused
+ * assignments and archived classes get the cards too, and the drill holds them back until they
+ * resume, as it does with every other card of theirs.
+ * @example await createCardsForDeckLicks(deckId, [newLickId], now, t) // 6 for 3 members, one quality besides home
+ */
+export async function createCardsForDeckLicks(
+	deckId: string,
+	lickIds: readonly string[],
+	now: Date,
+	transaction: Transaction
+): Promise<number> {
+	if (lickIds.length === 0) return 0;
+	const assignments = await Assignment.findAll({ where: { deckId }, transaction });
+	let made = 0;
+	for (const assignment of assignments) {
+		const members = await ClassMember.findAll({
+			where: { classId: assignment.classId },
+			attributes: ['userId'],
+			transaction
+		});
+		made += await createAssignmentCards(
+			{ id: assignment.id, deckId, qualities: assignment.qualities ?? [] },
+			members.map((m) => m.userId),
+			now,
+			transaction,
+			lickIds
+		);
+	}
+	return made;
 }
 
 /**

@@ -17,6 +17,7 @@ import {
 	type Actor,
 	type Result
 } from './common';
+import { MAX_CLASS_NAME } from '../../forms/classes';
 
 /**
  * Classes: a teacher creates, renames and archives them, and turns the join code and the invite
@@ -40,7 +41,7 @@ export interface ClassView {
 	createdAt: string;
 }
 
-export const MAX_CLASS_NAME = 120;
+export { MAX_CLASS_NAME };
 // No 0/O, 1/I/L: a code read aloud or copied from a whiteboard comes out right.
 const CODE_ALPHABET = 'ABCDEFGHJKMNPQRSTUVWXYZ23456789';
 export const CODE_LENGTH = 8;

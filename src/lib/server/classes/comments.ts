@@ -2,6 +2,7 @@ import { Op, QueryTypes } from 'sequelize';
 import { getDb } from '../db/index';
 import { Card, Comment } from '../db/models/index';
 import { invalid, isId, isoOrNull, notFound, type Actor, type Result } from './common';
+import { MAX_COMMENT } from '../../forms/classes';
 
 /**
  * Comment threads on a learner's card, between the learner and the teacher of the class the card
@@ -20,7 +21,7 @@ export interface CommentView {
 	seenAt: string | null;
 }
 
-export const MAX_COMMENT = 2000;
+export { MAX_COMMENT };
 
 const cardNotFound = notFound('No such card among the ones you can comment on.');
 

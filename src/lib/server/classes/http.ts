@@ -1,6 +1,8 @@
+import type { z } from 'zod';
 import { apiError } from '../http/json';
 import { createRateLimiter } from '../auth/rate-limit';
 import type { SessionUser } from '../auth/session';
+import { refuseField, say, type Form } from '../forms';
 import type { Refusal } from './common';
 
 /** The class services' refusals as the API's answers: one status per reason. */
@@ -33,6 +35,20 @@ export const classLimits = {
 	/** 20 join tries per 15 minutes per user. */
 	join: (userId: string) => joinLimiter.consume(userId)
 };
+
+/**
+ * A class service's refusal sent back with the form it came from: beside the field it names, or
+ * about the form as a whole (not found, forbidden, a state that forbids it).
+ * @example if (!result.ok) return refuseForm(form, result);
+ */
+export function refuseForm<S extends z.ZodType<Record<string, unknown>>>(
+	form: Form<S>,
+	result: Refusal
+) {
+	if (result.reason === 'invalid') return refuseField(form, result.field, result.message);
+	const status = { 'not-found': 404, forbidden: 403, conflict: 409 } as const;
+	return say(form, result.message, status[result.reason]);
+}
 
 /**
  * A submitted form's text fields (first value of each), or null when the body is not a form.

@@ -1,5 +1,6 @@
 import { Op, type Transaction } from 'sequelize';
 import { getDb } from '../db/index';
+import { createCardsForDeckLicks } from '../classes/class-cards';
 import { Assignment, Deck, DeckLick, Lick, User } from '../db/models/index';
 import { readableDeck, readableLick, readableLickSql, type Actor } from './access';
 import { deckNotFound, LibraryError } from './errors';
@@ -251,14 +252,29 @@ export async function createDeck(actor: Actor, input: DeckInput): Promise<DeckDe
 
 /**
  * Rename, describe or reorder the actor's own deck (`lickIds` replaces the list and its order).
+ * Licks new to a deck that is assigned to classes become cards of the classes' members.
  * @example await updateDeck(user, id, { lickIds: [b, a] })
  */
-export async function updateDeck(actor: Actor, id: string, input: DeckInput): Promise<DeckDetail> {
+export async function updateDeck(
+	actor: Actor,
+	id: string,
+	input: DeckInput,
+	now = new Date()
+): Promise<DeckDetail> {
 	await getDb().transaction(async (transaction) => {
 		const row = await findOwn(actor, id, transaction);
 		if (input.lickIds) {
 			await checkLicks(actor, input.lickIds, transaction);
+			const before = await DeckLick.findAll({
+				where: { deckId: row.id },
+				attributes: ['lickId'],
+				transaction
+			});
+			const had = new Set(before.map((r) => r.lickId));
 			await writeOrder(row.id, input.lickIds, transaction);
+			// A class the deck is assigned to gets the new licks now, not at its next join or edit.
+			const added = input.lickIds.filter((lickId) => !had.has(lickId));
+			await createCardsForDeckLicks(row.id, added, now, transaction);
 		}
 		const changes: Partial<{ name: string; description: string }> = {};
 		if (input.name !== undefined) changes.name = input.name;

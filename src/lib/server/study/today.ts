@@ -7,6 +7,7 @@ import { getDb } from '../db/index';
 import { Assignment, ClassGroup, Comment, Lick, LickVersion, User } from '../db/models/index';
 import type { HandWrittenVersions, QualityId } from '../../music';
 import { renderLickVariant } from '../music/render';
+import { respellNoteText } from '../../music/note-text';
 import type { TodayAnswer, TodayItem } from '../../practice/api';
 import { pickKey, type KeyMode, type KeyPlay } from '../../practice/keys';
 import {
@@ -307,6 +308,8 @@ async function promptsFor(
 			continue;
 		}
 		const variant = rendered.value;
+		// The teacher wrote the note about the lick in its home key; the learner reads this key.
+		const note = respellNoteText(lick.note, lick.homeKey, variant.writtenTonic);
 		const targetTempo = assignment?.targetTempo ?? lick.tempo;
 		const previews = previewDue(card.id, card, now, { desiredRetention: learner.desiredRetention });
 		items.push({
@@ -322,7 +325,8 @@ async function promptsFor(
 			targetTempo,
 			swingRatio: lick.swingRatio,
 			abc: lick.abc,
-			note: lick.note,
+			note: note.text,
+			noteNames: noteNamesOf(note, lick.homeKey === variant.writtenTonic),
 			isNew: card.state === 0,
 			state: stateName(card.state),
 			due: card.due.toISOString(),
@@ -346,4 +350,14 @@ async function promptsFor(
 		});
 	}
 	return items;
+}
+
+/** How the names in a teaching note relate to the prompt's key (`TodayItem.noteNames`). */
+function noteNamesOf(
+	note: { moved: number; bareLetters: number },
+	sameKey: boolean
+): TodayItem['noteNames'] {
+	if (sameKey) return 'none';
+	if (note.moved > 0) return note.bareLetters > 0 ? 'some-moved' : 'moved';
+	return note.bareLetters > 0 ? 'home' : 'none';
 }

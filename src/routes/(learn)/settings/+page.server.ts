@@ -1,6 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { changePasswordSchema, deleteAccountSchema } from '$lib/forms/account';
-import { settingsSchema } from '$lib/practice/settings';
+import { settingsSchema, summaryChoiceSchema } from '$lib/practice/settings';
 import { changePassword } from '$lib/server/auth/password';
 import { requireUser } from '$lib/server/auth/guard';
 import { deleteSessionCookie } from '$lib/server/auth/session';
@@ -16,7 +16,6 @@ import {
 } from '$lib/server/forms';
 import { updateSettings } from '$lib/server/study/settings';
 import { readMailChoices, setSummaryChoice } from '$lib/server/digest/choices';
-import { summaryChoiceSchema } from '$lib/forms/summary-choice';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {

@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { ClassGroup } from './class';
 import type { Deck } from './deck';
 
@@ -51,24 +52,19 @@ function jsonText(name: 'keys' | 'qualities', fallback: string[] | null) {
 }
 
 export function initAssignment(sequelize: Sequelize): void {
-	Assignment.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			startDate: { type: DataTypes.STRING(10), allowNull: false },
-			endDate: { type: DataTypes.STRING(10), allowNull: true },
-			newPerDay: { type: DataTypes.INTEGER, allowNull: false },
-			keys: { type: DataTypes.TEXT, allowNull: true, ...jsonText('keys', null) },
-			qualities: {
-				type: DataTypes.TEXT,
-				allowNull: false,
-				defaultValue: '[]',
-				...jsonText('qualities', [])
-			},
-			targetTempo: { type: DataTypes.INTEGER, allowNull: true },
-			pausedAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
+	bindTable(Assignment, sequelize, 'assignments', 'created-updated', {
+		id: uuidKey(),
+		startDate: { type: DataTypes.STRING(10), allowNull: false },
+		endDate: { type: DataTypes.STRING(10), allowNull: true },
+		newPerDay: { type: DataTypes.INTEGER, allowNull: false },
+		keys: { type: DataTypes.TEXT, allowNull: true, ...jsonText('keys', null) },
+		qualities: {
+			type: DataTypes.TEXT,
+			allowNull: false,
+			defaultValue: '[]',
+			...jsonText('qualities', [])
 		},
-		{ sequelize, tableName: 'assignments', underscored: true }
-	);
+		targetTempo: { type: DataTypes.INTEGER, allowNull: true },
+		pausedAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

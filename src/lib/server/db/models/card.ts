@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { Lick } from './lick';
 import type { User } from './user';
 
@@ -46,28 +47,23 @@ export class Card extends Model<InferAttributes<Card>, InferCreationAttributes<C
 }
 
 export function initCard(sequelize: Sequelize): void {
-	Card.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			quality: { type: DataTypes.STRING(16), allowNull: false },
-			assignmentId: { type: DataTypes.UUID, allowNull: true },
-			newPosition: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			introducedDay: { type: DataTypes.STRING(10), allowNull: true },
-			retiredAt: { type: DataTypes.DATE, allowNull: true },
-			due: { type: DataTypes.DATE, allowNull: false },
-			stability: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-			difficulty: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-			scheduledDays: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			learningSteps: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			reps: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			lapses: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			state: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			lastReview: { type: DataTypes.DATE, allowNull: true },
-			tempo: { type: DataTypes.INTEGER, allowNull: true },
-			version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'cards', underscored: true }
-	);
+	bindTable(Card, sequelize, 'cards', 'created-updated', {
+		id: uuidKey(),
+		quality: { type: DataTypes.STRING(16), allowNull: false },
+		assignmentId: { type: DataTypes.UUID, allowNull: true },
+		newPosition: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		introducedDay: { type: DataTypes.STRING(10), allowNull: true },
+		retiredAt: { type: DataTypes.DATE, allowNull: true },
+		due: { type: DataTypes.DATE, allowNull: false },
+		stability: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+		difficulty: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+		scheduledDays: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		learningSteps: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		reps: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		lapses: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		state: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		lastReview: { type: DataTypes.DATE, allowNull: true },
+		tempo: { type: DataTypes.INTEGER, allowNull: true },
+		version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 }
+	});
 }

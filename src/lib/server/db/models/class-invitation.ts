@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { ClassGroup } from './class';
 import type { User } from './user';
 
@@ -26,15 +27,11 @@ export class ClassInvitation extends Model<
 }
 
 export function initClassInvitation(sequelize: Sequelize): void {
-	ClassInvitation.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			email: { type: DataTypes.STRING(254), allowNull: false },
-			tokenHash: { type: DataTypes.STRING(64), allowNull: false },
-			expiresAt: { type: DataTypes.DATE, allowNull: false },
-			acceptedAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'class_invitations', underscored: true, updatedAt: false }
-	);
+	bindTable(ClassInvitation, sequelize, 'class_invitations', 'created', {
+		id: uuidKey(),
+		email: { type: DataTypes.STRING(254), allowNull: false },
+		tokenHash: { type: DataTypes.STRING(64), allowNull: false },
+		expiresAt: { type: DataTypes.DATE, allowNull: false },
+		acceptedAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

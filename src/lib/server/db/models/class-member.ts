@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, serialKey } from './table';
 import type { ClassGroup } from './class';
 import type { User } from './user';
 
@@ -22,11 +23,8 @@ export class ClassMember extends Model<
 }
 
 export function initClassMember(sequelize: Sequelize): void {
-	ClassMember.init(
-		{
-			id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-			joinedAt: { type: DataTypes.DATE, allowNull: false }
-		},
-		{ sequelize, tableName: 'class_members', underscored: true, timestamps: false }
-	);
+	bindTable(ClassMember, sequelize, 'class_members', 'none', {
+		id: serialKey(),
+		joinedAt: { type: DataTypes.DATE, allowNull: false }
+	});
 }

@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { User } from './user';
 
 /** A teacher's class. (`Class` would shadow nothing in TS, but reads badly: hence `ClassGroup`.) */
@@ -27,16 +28,11 @@ export class ClassGroup extends Model<
 }
 
 export function initClassGroup(sequelize: Sequelize): void {
-	ClassGroup.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			name: { type: DataTypes.STRING(120), allowNull: false },
-			joinCode: { type: DataTypes.STRING(16), allowNull: true },
-			joinToken: { type: DataTypes.STRING(64), allowNull: true },
-			archivedAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'classes', underscored: true }
-	);
+	bindTable(ClassGroup, sequelize, 'classes', 'created-updated', {
+		id: uuidKey(),
+		name: { type: DataTypes.STRING(120), allowNull: false },
+		joinCode: { type: DataTypes.STRING(16), allowNull: true },
+		joinToken: { type: DataTypes.STRING(64), allowNull: true },
+		archivedAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { Card } from './card';
 import type { User } from './user';
 
@@ -22,13 +23,9 @@ export class Comment extends Model<InferAttributes<Comment>, InferCreationAttrib
 }
 
 export function initComment(sequelize: Sequelize): void {
-	Comment.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			text: { type: DataTypes.TEXT, allowNull: false },
-			seenAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'comments', underscored: true, updatedAt: false }
-	);
+	bindTable(Comment, sequelize, 'comments', 'created', {
+		id: uuidKey(),
+		text: { type: DataTypes.TEXT, allowNull: false },
+		seenAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

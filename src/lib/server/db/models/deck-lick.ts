@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, serialKey } from './table';
 import type { Deck } from './deck';
 import type { Lick } from './lick';
 
@@ -20,11 +21,8 @@ export class DeckLick extends Model<InferAttributes<DeckLick>, InferCreationAttr
 }
 
 export function initDeckLick(sequelize: Sequelize): void {
-	DeckLick.init(
-		{
-			id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-			position: { type: DataTypes.INTEGER, allowNull: false }
-		},
-		{ sequelize, tableName: 'deck_licks', underscored: true, timestamps: false }
-	);
+	bindTable(DeckLick, sequelize, 'deck_licks', 'none', {
+		id: serialKey(),
+		position: { type: DataTypes.INTEGER, allowNull: false }
+	});
 }

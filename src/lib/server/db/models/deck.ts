@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { User } from './user';
 
 /** A named, ordered list of licks (order in `DeckLick.position`). Deleting it keeps the licks. */
@@ -20,14 +21,9 @@ export class Deck extends Model<InferAttributes<Deck>, InferCreationAttributes<D
 }
 
 export function initDeck(sequelize: Sequelize): void {
-	Deck.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			name: { type: DataTypes.STRING(120), allowNull: false },
-			description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'decks', underscored: true }
-	);
+	bindTable(Deck, sequelize, 'decks', 'created-updated', {
+		id: uuidKey(),
+		name: { type: DataTypes.STRING(120), allowNull: false },
+		description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' }
+	});
 }

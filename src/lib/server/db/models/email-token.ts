@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, hashKey } from './table';
 import type { User } from './user';
 
 export const TOKEN_PURPOSES = ['verify', 'reset'] as const;
@@ -28,19 +29,15 @@ export class EmailToken extends Model<
 }
 
 export function initEmailToken(sequelize: Sequelize): void {
-	EmailToken.init(
-		{
-			id: { type: DataTypes.STRING(64), primaryKey: true },
-			// A string with a CHECK in the database (migration 0003), never an ENUM.
-			purpose: {
-				type: DataTypes.STRING(16),
-				allowNull: false,
-				validate: { isIn: [TOKEN_PURPOSES as unknown as string[]] }
-			},
-			expiresAt: { type: DataTypes.DATE, allowNull: false },
-			usedAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE
+	bindTable(EmailToken, sequelize, 'email_tokens', 'created', {
+		id: hashKey(),
+		// A string with a CHECK in the database (migration 0003), never an ENUM.
+		purpose: {
+			type: DataTypes.STRING(16),
+			allowNull: false,
+			validate: { isIn: [TOKEN_PURPOSES as unknown as string[]] }
 		},
-		{ sequelize, tableName: 'email_tokens', underscored: true, updatedAt: false }
-	);
+		expiresAt: { type: DataTypes.DATE, allowNull: false },
+		usedAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, serialKey } from './table';
 import type { Lick } from './lick';
 
 /** One tag of a lick: a device name of the trade or a free word, lower-case. */
@@ -17,11 +18,8 @@ export class LickTag extends Model<InferAttributes<LickTag>, InferCreationAttrib
 }
 
 export function initLickTag(sequelize: Sequelize): void {
-	LickTag.init(
-		{
-			id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-			tag: { type: DataTypes.STRING(40), allowNull: false }
-		},
-		{ sequelize, tableName: 'lick_tags', underscored: true, timestamps: false }
-	);
+	bindTable(LickTag, sequelize, 'lick_tags', 'none', {
+		id: serialKey(),
+		tag: { type: DataTypes.STRING(40), allowNull: false }
+	});
 }

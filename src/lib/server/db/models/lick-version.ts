@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { Lick } from './lick';
 
 /** A teacher's hand-written version of a lick for one chord quality, used instead of the re-mapping. */
@@ -24,14 +25,9 @@ export class LickVersion extends Model<
 }
 
 export function initLickVersion(sequelize: Sequelize): void {
-	LickVersion.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			quality: { type: DataTypes.STRING(16), allowNull: false },
-			abc: { type: DataTypes.TEXT, allowNull: false },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'lick_versions', underscored: true }
-	);
+	bindTable(LickVersion, sequelize, 'lick_versions', 'created-updated', {
+		id: uuidKey(),
+		quality: { type: DataTypes.STRING(16), allowNull: false },
+		abc: { type: DataTypes.TEXT, allowNull: false }
+	});
 }

@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { User } from './user';
 
 export const VISIBILITIES = ['private', 'classes', 'public'] as const;
@@ -43,30 +44,25 @@ export class Lick extends Model<InferAttributes<Lick>, InferCreationAttributes<L
 }
 
 export function initLick(sequelize: Sequelize): void {
-	Lick.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			title: { type: DataTypes.STRING(200), allowNull: false },
-			abc: { type: DataTypes.TEXT, allowNull: false },
-			homeKey: { type: DataTypes.STRING(8), allowNull: false },
-			homeQuality: { type: DataTypes.STRING(16), allowNull: false },
-			note: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-			tempo: { type: DataTypes.INTEGER, allowNull: false },
-			swingRatio: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 2 },
-			visibility: {
-				type: DataTypes.STRING(16),
-				allowNull: false,
-				defaultValue: 'private',
-				validate: { isIn: [VISIBILITIES as unknown as string[]] }
-			},
-			shareSlug: { type: DataTypes.STRING(32), allowNull: true },
-			recordingKey: { type: DataTypes.STRING(200), allowNull: true },
-			recordingType: { type: DataTypes.STRING(40), allowNull: true },
-			recordingSize: { type: DataTypes.INTEGER, allowNull: true },
-			copiedFromId: { type: DataTypes.UUID, allowNull: true },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
+	bindTable(Lick, sequelize, 'licks', 'created-updated', {
+		id: uuidKey(),
+		title: { type: DataTypes.STRING(200), allowNull: false },
+		abc: { type: DataTypes.TEXT, allowNull: false },
+		homeKey: { type: DataTypes.STRING(8), allowNull: false },
+		homeQuality: { type: DataTypes.STRING(16), allowNull: false },
+		note: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+		tempo: { type: DataTypes.INTEGER, allowNull: false },
+		swingRatio: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 2 },
+		visibility: {
+			type: DataTypes.STRING(16),
+			allowNull: false,
+			defaultValue: 'private',
+			validate: { isIn: [VISIBILITIES as unknown as string[]] }
 		},
-		{ sequelize, tableName: 'licks', underscored: true }
-	);
+		shareSlug: { type: DataTypes.STRING(32), allowNull: true },
+		recordingKey: { type: DataTypes.STRING(200), allowNull: true },
+		recordingType: { type: DataTypes.STRING(40), allowNull: true },
+		recordingSize: { type: DataTypes.INTEGER, allowNull: true },
+		copiedFromId: { type: DataTypes.UUID, allowNull: true }
+	});
 }

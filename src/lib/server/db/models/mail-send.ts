@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { User } from './user';
 
 export const MAIL_KINDS = ['digest', 'summary'] as const;
@@ -34,19 +35,14 @@ export class MailSend extends Model<InferAttributes<MailSend>, InferCreationAttr
 }
 
 export function initMailSend(sequelize: Sequelize): void {
-	MailSend.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			kind: { type: DataTypes.STRING(16), allowNull: false },
-			day: { type: DataTypes.STRING(10), allowNull: false },
-			status: { type: DataTypes.STRING(16), allowNull: false },
-			attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-			nextAttemptAt: { type: DataTypes.DATE, allowNull: true },
-			lastError: { type: DataTypes.TEXT, allowNull: true },
-			sentAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'mail_sends', underscored: true }
-	);
+	bindTable(MailSend, sequelize, 'mail_sends', 'created-updated', {
+		id: uuidKey(),
+		kind: { type: DataTypes.STRING(16), allowNull: false },
+		day: { type: DataTypes.STRING(10), allowNull: false },
+		status: { type: DataTypes.STRING(16), allowNull: false },
+		attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+		nextAttemptAt: { type: DataTypes.DATE, allowNull: true },
+		lastError: { type: DataTypes.TEXT, allowNull: true },
+		sentAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 import type { Card } from './card';
 import type { Lick } from './lick';
 import type { User } from './user';
@@ -43,24 +44,20 @@ export class Review extends Model<InferAttributes<Review>, InferCreationAttribut
 }
 
 export function initReview(sequelize: Sequelize): void {
-	Review.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			clientId: { type: DataTypes.STRING(64), allowNull: false },
-			sittingId: { type: DataTypes.STRING(64), allowNull: true },
-			reviewedAt: { type: DataTypes.DATE, allowNull: false },
-			day: { type: DataTypes.STRING(10), allowNull: false },
-			grade: { type: DataTypes.INTEGER, allowNull: false },
-			key: { type: DataTypes.STRING(4), allowNull: false },
-			quality: { type: DataTypes.STRING(16), allowNull: false },
-			tempo: { type: DataTypes.INTEGER, allowNull: true },
-			revealMs: { type: DataTypes.INTEGER, allowNull: true },
-			gradeMs: { type: DataTypes.INTEGER, allowNull: true },
-			stateBefore: { type: DataTypes.TEXT, allowNull: false },
-			stateAfter: { type: DataTypes.TEXT, allowNull: false },
-			undoneAt: { type: DataTypes.DATE, allowNull: true },
-			createdAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'reviews', underscored: true, updatedAt: false }
-	);
+	bindTable(Review, sequelize, 'reviews', 'created', {
+		id: uuidKey(),
+		clientId: { type: DataTypes.STRING(64), allowNull: false },
+		sittingId: { type: DataTypes.STRING(64), allowNull: true },
+		reviewedAt: { type: DataTypes.DATE, allowNull: false },
+		day: { type: DataTypes.STRING(10), allowNull: false },
+		grade: { type: DataTypes.INTEGER, allowNull: false },
+		key: { type: DataTypes.STRING(4), allowNull: false },
+		quality: { type: DataTypes.STRING(16), allowNull: false },
+		tempo: { type: DataTypes.INTEGER, allowNull: true },
+		revealMs: { type: DataTypes.INTEGER, allowNull: true },
+		gradeMs: { type: DataTypes.INTEGER, allowNull: true },
+		stateBefore: { type: DataTypes.TEXT, allowNull: false },
+		stateAfter: { type: DataTypes.TEXT, allowNull: false },
+		undoneAt: { type: DataTypes.DATE, allowNull: true }
+	});
 }

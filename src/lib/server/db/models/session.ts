@@ -7,6 +7,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, hashKey } from './table';
 import type { User } from './user';
 
 /** A signed-in browser or API client. */
@@ -19,12 +20,8 @@ export class Session extends Model<InferAttributes<Session>, InferCreationAttrib
 }
 
 export function initSession(sequelize: Sequelize): void {
-	Session.init(
-		{
-			id: { type: DataTypes.STRING(64), primaryKey: true },
-			expiresAt: { type: DataTypes.DATE, allowNull: false },
-			createdAt: DataTypes.DATE
-		},
-		{ sequelize, tableName: 'sessions', underscored: true, updatedAt: false }
-	);
+	bindTable(Session, sequelize, 'sessions', 'created', {
+		id: hashKey(),
+		expiresAt: { type: DataTypes.DATE, allowNull: false }
+	});
 }

@@ -6,6 +6,7 @@ import {
 	type InferCreationAttributes,
 	type Sequelize
 } from 'sequelize';
+import { bindTable, uuidKey } from './table';
 
 import { ROLES, type Role } from '../../../forms/account';
 
@@ -47,38 +48,33 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 }
 
 export function initUser(sequelize: Sequelize): void {
-	User.init(
-		{
-			id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
-			email: {
-				type: DataTypes.STRING(254),
-				allowNull: false,
-				unique: true,
-				set(value: string) {
-					this.setDataValue('email', String(value).trim().toLowerCase());
-				}
-			},
-			name: { type: DataTypes.STRING(100), allowNull: false },
-			// A string with a CHECK in the database (migration 0003), never an ENUM.
-			role: {
-				type: DataTypes.STRING(16),
-				allowNull: false,
-				defaultValue: 'learner',
-				validate: { isIn: [ROLES as unknown as string[]] }
-			},
-			passwordHash: { type: DataTypes.STRING(255), allowNull: false },
-			emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
-			timezone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
-			digestHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 7 },
-			digestEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-			dayStartHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 4 },
-			settings: { type: DataTypes.JSON, allowNull: false, defaultValue: {} },
-			summaryEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-			summaryWeekday: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-			mailSecret: { type: DataTypes.STRING(64), allowNull: true },
-			createdAt: DataTypes.DATE,
-			updatedAt: DataTypes.DATE
+	bindTable(User, sequelize, 'users', 'created-updated', {
+		id: uuidKey(),
+		email: {
+			type: DataTypes.STRING(254),
+			allowNull: false,
+			unique: true,
+			set(value: string) {
+				this.setDataValue('email', String(value).trim().toLowerCase());
+			}
 		},
-		{ sequelize, tableName: 'users', underscored: true }
-	);
+		name: { type: DataTypes.STRING(100), allowNull: false },
+		// A string with a CHECK in the database (migration 0003), never an ENUM.
+		role: {
+			type: DataTypes.STRING(16),
+			allowNull: false,
+			defaultValue: 'learner',
+			validate: { isIn: [ROLES as unknown as string[]] }
+		},
+		passwordHash: { type: DataTypes.STRING(255), allowNull: false },
+		emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
+		timezone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+		digestHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 7 },
+		digestEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+		dayStartHour: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 4 },
+		settings: { type: DataTypes.JSON, allowNull: false, defaultValue: {} },
+		summaryEnabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+		summaryWeekday: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+		mailSecret: { type: DataTypes.STRING(64), allowNull: true }
+	});
 }

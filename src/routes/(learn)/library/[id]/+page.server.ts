@@ -1,7 +1,7 @@
 import { error, redirect } from '@sveltejs/kit';
 import { requireUser } from '$lib/server/auth/guard';
 import { LibraryError } from '$lib/server/library/errors';
-import { copyLick, getLick } from '$lib/server/library/licks';
+import { checkLickAbc, copyLick, getLick } from '$lib/server/library/licks';
 import { renderNote } from '$lib/library/markdown';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -11,6 +11,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		const lick = await getLick(user, params.id);
 		return {
 			lick,
+			abcHome: abcHomeOf(lick),
 			noteHtml: renderNote(lick.note),
 			instrument: user.settings.instrument ?? 'concert'
 		};
@@ -19,6 +20,17 @@ export const load: PageServerLoad = async ({ params }) => {
 		throw e;
 	}
 };
+
+/** What the stored abc reads as home key and quality (the editor tells an override from it). */
+function abcHomeOf(lick: { abc: string; versions: Record<string, string> }) {
+	try {
+		const read = checkLickAbc(lick.abc, lick.versions);
+		return { key: read.homeKey, quality: read.homeQuality };
+	} catch {
+		// A stored lick always reads; should one not, every home value shows as chosen.
+		return null;
+	}
+}
 
 export const actions: Actions = {
 	/** A private copy of a lick shared with the actor, to change as their own. */

@@ -18,6 +18,7 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 			feel: lick.feel,
 			homeKey: lick.homeKey,
 			homeQuality: lick.homeQuality,
+			note: lick.note,
 			versions: lick.versions,
 			author: { name: lick.author.name },
 			recording: lick.recording ? { type: lick.recording.type } : null,

@@ -1,4 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
+import { message } from 'sveltekit-superforms';
 import { requireRole } from '$lib/server/auth/guard';
 import {
 	assignableDecks,
@@ -12,7 +13,9 @@ import type { Refusal } from '$lib/server/classes/common';
 import { inviteByEmail, listInvitations } from '$lib/server/classes/invitations';
 import { listMembers, removeMember } from '$lib/server/classes/members';
 import { classProgress } from '$lib/server/classes/progress';
-import { classLimits, readFields } from '$lib/server/classes/http';
+import { classLimits, readFields, refuseForm } from '$lib/server/classes/http';
+import { emptyForm, filledForm, readForm, say, unreadable } from '$lib/server/forms';
+import { assignSchema, classNameSchema, inviteSchema, paceSchema } from '$lib/forms/classes';
 import { practiceDay } from '$lib/practice/day';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -34,6 +37,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		listAssignments(user, params.id),
 		assignableDecks(user)
 	]);
+	const today = practiceDay(new Date(), user.settings.timezone, 4);
 	return {
 		cls: got.class,
 		members: members.ok ? members.items : [],
@@ -41,33 +45,31 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		assignments: assignments.ok ? assignments.items : [],
 		decks,
 		progress: progress.ok ? progress : null,
-		today: practiceDay(new Date(), user.settings.timezone, 4)
+		renameForm: await filledForm(classNameSchema, { name: got.class.name }, 'rename'),
+		inviteForm: await emptyForm(inviteSchema, 'invite'),
+		assignForm: await filledForm(
+			assignSchema,
+			{ deckId: decks[0]?.id ?? '', startDate: today, newPerDay: '2' },
+			'assign'
+		),
+		/** Blank: each assignment's pace form fills it with its own values and id. */
+		paceForm: await emptyForm(paceSchema)
 	};
 };
 
-function refused(result: Refusal, extra: Record<string, unknown> = {}) {
+/** A refusal of one of the buttons (no fields of its own): said at the top of the page. */
+function refused(result: Refusal) {
 	const status = { 'not-found': 404, forbidden: 403, conflict: 409, invalid: 422 }[result.reason];
-	return fail(status, {
-		...extra,
-		message: result.message,
-		field: 'field' in result ? result.field : null
-	});
-}
-
-async function formData(request: Request): Promise<FormData | null> {
-	try {
-		return await request.formData();
-	} catch {
-		return null;
-	}
+	return fail(status, { message: result.message });
 }
 
 export const actions: Actions = {
 	rename: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readFields(request);
-		const result = await updateClass(user, params.id, { name: form?.name });
-		return result.ok ? { done: 'Renamed.' } : refused(result, { form: 'rename' });
+		const form = await readForm(request, classNameSchema, 'rename');
+		if (!form) return unreadable(classNameSchema, 'rename');
+		const result = await updateClass(user, params.id, { name: form.data.name });
+		return result.ok ? message(form, 'Renamed.') : refuseForm(form, result);
 	},
 	archive: async ({ params }) => {
 		const user = requireRole('teacher', 'admin');
@@ -92,24 +94,25 @@ export const actions: Actions = {
 	},
 	invite: async ({ request, params, setHeaders }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readFields(request);
+		const form = await readForm(request, inviteSchema, 'invite');
+		if (!form) return unreadable(inviteSchema, 'invite');
 		const limit = await classLimits.invite(user.id);
 		if (!limit.allowed) {
 			setHeaders({ 'Retry-After': String(limit.retryAfterSeconds) });
-			return fail(429, {
-				form: 'invite',
-				email: form?.email ?? '',
-				message: `Too many invitations; try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`,
-				field: null
-			});
+			return say(
+				form,
+				`Too many invitations; try again in ${Math.ceil(limit.retryAfterSeconds / 60)} minutes.`,
+				429
+			);
 		}
-		const result = await inviteByEmail(user, params.id, { email: form?.email });
-		if (!result.ok) return refused(result, { form: 'invite', email: form?.email ?? '' });
-		return {
-			done: result.mailSent
+		const result = await inviteByEmail(user, params.id, { email: form.data.email });
+		if (!result.ok) return refuseForm(form, result);
+		return message(
+			form,
+			result.mailSent
 				? `Invitation sent to ${result.invitation.email}.`
 				: `The invitation to ${result.invitation.email} is saved, but the mail could not be sent just now.`
-		};
+		);
 	},
 	remove: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
@@ -121,25 +124,18 @@ export const actions: Actions = {
 	},
 	assign: async ({ request, params }) => {
 		const user = requireRole('teacher', 'admin');
-		const data = await formData(request);
-		if (!data)
-			return fail(400, { form: 'assign', message: 'The form could not be read.', field: null });
-		const keys = data.getAll('keys').map(String);
-		const input = {
-			deckId: data.get('deckId'),
-			startDate: data.get('startDate'),
-			newPerDay: data.get('newPerDay'),
-			keys: keys.length === 0 || keys.length === 12 ? undefined : keys,
-			qualities: data.getAll('qualities').map(String),
-			targetTempo: data.get('targetTempo') || null,
-			endDate: data.get('endDate') || null
-		};
-		if (keys.length === 0) {
-			return fail(422, { form: 'assign', message: 'Tick at least one key.', field: 'keys' });
-		}
-		const result = await createAssignment(user, params.id, input);
-		if (!result.ok) return refused(result, { form: 'assign' });
-		return { done: `${result.assignment.deckName} assigned.` };
+		const form = await readForm(request, assignSchema, 'assign');
+		if (!form) return unreadable(assignSchema, 'assign');
+		if (!form.valid) return fail(422, { form });
+		const { keyChoice, keys, ...rest } = form.data;
+		const result = await createAssignment(user, params.id, {
+			...rest,
+			keys: keyChoice === 'all' ? undefined : keys,
+			targetTempo: rest.targetTempo || null,
+			endDate: rest.endDate || null
+		});
+		if (!result.ok) return refuseForm(form, result);
+		return message(form, `${result.assignment.deckName} assigned.`);
 	},
 	pause: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
@@ -153,15 +149,14 @@ export const actions: Actions = {
 	},
 	edit: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readFields(request);
-		const result = await updateAssignment(user, form?.assignmentId, {
-			newPerDay: form?.newPerDay,
-			targetTempo: form?.targetTempo || null,
-			endDate: form?.endDate || null
+		const form = await readForm(request, paceSchema);
+		if (!form) return unreadable(paceSchema);
+		const result = await updateAssignment(user, form.data.assignmentId, {
+			newPerDay: form.data.newPerDay,
+			targetTempo: form.data.targetTempo || null,
+			endDate: form.data.endDate || null
 		});
-		return result.ok
-			? { done: 'Assignment saved.' }
-			: refused(result, { form: `edit-${form?.assignmentId}` });
+		return result.ok ? message(form, 'Assignment saved.') : refuseForm(form, result);
 	},
 	unassign: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');

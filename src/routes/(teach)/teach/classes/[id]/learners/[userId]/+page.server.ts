@@ -1,8 +1,10 @@
-import { error, fail } from '@sveltejs/kit';
+import { error } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/guard';
 import { listComments, postComment } from '$lib/server/classes/comments';
 import { learnerDetail } from '$lib/server/classes/learner';
-import { readFields } from '$lib/server/classes/http';
+import { refuseForm } from '$lib/server/classes/http';
+import { emptyForm, readForm, unreadable } from '$lib/server/forms';
+import { commentSchema } from '$lib/forms/classes';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
@@ -16,21 +18,19 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		classId: params.id,
 		view,
 		selected: selected ? { cardId: selected.cardId, title: selected.title } : null,
-		thread: thread?.ok ? thread.items : []
+		thread: thread?.ok ? thread.items : [],
+		commentForm: await emptyForm(commentSchema)
 	};
 };
 
 export const actions: Actions = {
 	comment: async ({ request }) => {
 		const user = requireRole('teacher', 'admin');
-		const form = await readFields(request);
-		const result = await postComment(user, form?.cardId, { text: form?.text });
-		if (!result.ok) {
-			return fail(result.reason === 'invalid' ? 422 : 404, {
-				text: form?.text ?? '',
-				message: result.message
-			});
-		}
-		return { done: true };
+		const form = await readForm(request, commentSchema);
+		if (!form) return unreadable(commentSchema);
+		const result = await postComment(user, form.data.cardId, { text: form.data.text });
+		if (!result.ok) return refuseForm(form, result);
+		// The thread above shows the comment; the emptied field says it went.
+		return { form };
 	}
 };

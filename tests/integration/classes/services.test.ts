@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { Card, ClassMember } from '../../../src/lib/server/db/models/index';
+import { Card, ClassInvitation, ClassMember, User } from '../../../src/lib/server/db/models/index';
 import {
 	createAssignment,
 	decksAssignedTo,
@@ -290,6 +290,19 @@ describe('joining', () => {
 		const tooLate = await acceptInvitation(late, token, new Date('2030-01-01'));
 		expect(tooLate.ok ? 'joined' : tooLate.reason).toBe('conflict');
 	});
+});
+
+test('a teacher whose own address is unconfirmed sends no invitation mail, and nothing is stored', async () => {
+	const { teacher, cls } = await classWithDeck(0);
+	await User.update({ emailVerifiedAt: null }, { where: { id: teacher.id } });
+	const before = (await listMessages()).length;
+	const refused = await inviteByEmail(teacher, cls.id, { email: 'someone@example.test' });
+	expect(refused.ok ? 'sent' : [refused.reason, refused.message]).toEqual([
+		'forbidden',
+		expect.stringMatching(/^Confirm your own e-mail address/)
+	]);
+	expect((await listMessages()).length).toBe(before);
+	expect(await ClassInvitation.count({ where: { classId: cls.id } })).toBe(0);
 });
 
 describe('comment threads', () => {

@@ -10,6 +10,7 @@ import { joinClass, type JoinedClass } from './members';
 import {
 	classNotFound,
 	conflict,
+	forbidden,
 	invalid,
 	isoOrNull,
 	notFound,
@@ -55,6 +56,17 @@ export async function inviteByEmail(
 	if (cls.archivedAt) return conflict('This class is archived; restore it before inviting anyone.');
 	const email = normalizeEmail(input.email);
 	if (!email) return invalid('email', 'Enter an e-mail address such as name@example.com.');
+	// The mail carries the teacher's name and the class name, free text, to an address that
+	// agreed to nothing: only someone whose own address is confirmed may send it.
+	const [teacher] = await getDb().query<{ name: string; verified: unknown }>(
+		'SELECT name, email_verified_at AS verified FROM users WHERE id = :id',
+		{ replacements: { id: actor.id }, type: QueryTypes.SELECT }
+	);
+	if (!teacher?.verified) {
+		return forbidden(
+			'Confirm your own e-mail address before inviting anyone by e-mail; the join code and the invite link work meanwhile.'
+		);
+	}
 	const token = createToken();
 	const row = await ClassInvitation.create({
 		classId: cls.id,
@@ -63,16 +75,12 @@ export async function inviteByEmail(
 		tokenHash: hashToken(token),
 		expiresAt: new Date(now.getTime() + INVITATION_DAYS * 86_400_000)
 	});
-	const [teacher] = await getDb().query<{ name: string }>('SELECT name FROM users WHERE id = :id', {
-		replacements: { id: actor.id },
-		type: QueryTypes.SELECT
-	});
 	let mailSent = true;
 	try {
 		await sendMail({
 			to: email,
 			...classInvitationMail({
-				teacherName: teacher?.name ?? 'Your teacher',
+				teacherName: teacher.name,
 				className: cls.name,
 				url: invitationLinkFor(token),
 				days: INVITATION_DAYS

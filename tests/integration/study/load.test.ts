@@ -6,9 +6,7 @@
  * a timeout on every request and on the whole file. Builds the server first when `build/` is
  * missing or older than `src/`.
  */
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
-import { createServer } from 'node:net';
+import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
@@ -16,42 +14,12 @@ import { createSession, SESSION_COOKIE_NAME } from '../../../src/lib/server/auth
 import { Card } from '../../../src/lib/server/db/models/index';
 import { addCards } from '../../../src/lib/server/study/cards';
 import { openTestWorld, type TestWorld } from '../support/world';
+import { ROOT, ensureBuild, freePort } from '../support/built-server';
 import { makeLick, makeUser } from './world';
 
-const ROOT = path.resolve(import.meta.dirname, '../../..');
 const GRADERS = 200;
 const LEARNERS = 100;
 const PER_GRADER = 5;
-
-function newest(dir: string): number {
-	let t = 0;
-	for (const e of readdirSync(dir, { withFileTypes: true })) {
-		const full = path.join(dir, e.name);
-		t = Math.max(t, e.isDirectory() ? newest(full) : statSync(full).mtimeMs);
-	}
-	return t;
-}
-
-function ensureBuild(): void {
-	const entry = path.join(ROOT, 'build', 'index.js');
-	if (existsSync(entry) && statSync(entry).mtimeMs >= newest(path.join(ROOT, 'src'))) return;
-	const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
-		cwd: ROOT,
-		stdio: 'inherit'
-	});
-	if (built.status !== 0) throw new Error('vite build failed');
-}
-
-async function freePort(): Promise<number> {
-	return new Promise((resolve, reject) => {
-		const s = createServer();
-		s.once('error', reject);
-		s.listen(0, '127.0.0.1', () => {
-			const { port } = s.address() as { port: number };
-			s.close(() => resolve(port));
-		});
-	});
-}
 
 let world: TestWorld;
 let port: number;

@@ -4,7 +4,7 @@
  * missing or older than `src/`.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { createServer } from 'node:net';
 import path from 'node:path';
 
@@ -19,14 +19,44 @@ function newest(dir: string): number {
 	return t;
 }
 
-export function ensureBuild(): void {
+function fresh(): boolean {
 	const entry = path.join(ROOT, 'build', 'index.js');
-	if (existsSync(entry) && statSync(entry).mtimeMs >= newest(path.join(ROOT, 'src'))) return;
-	const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
-		cwd: ROOT,
-		stdio: 'inherit'
-	});
-	if (built.status !== 0) throw new Error('vite build failed');
+	return existsSync(entry) && statSync(entry).mtimeMs >= newest(path.join(ROOT, 'src'));
+}
+
+const sleep = (ms: number) => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ms);
+
+/**
+ * Build when `build/` is stale. Test files run in parallel processes, and two builds into one
+ * folder would break each other: a lock folder (mkdir is atomic) lets one build while the others
+ * wait and then find the build fresh. A lock older than ten minutes is a crashed builder's.
+ */
+export function ensureBuild(): void {
+	const lock = path.join(ROOT, 'tmp', 'build.lock');
+	mkdirSync(path.dirname(lock), { recursive: true });
+	for (;;) {
+		if (fresh()) return;
+		try {
+			mkdirSync(lock);
+		} catch {
+			const since = statSync(lock, { throwIfNoEntry: false })?.mtimeMs ?? Date.now();
+			if (Date.now() - since > 600_000) {
+				rmSync(lock, { recursive: true, force: true });
+			} else sleep(1000);
+			continue;
+		}
+		try {
+			if (fresh()) return;
+			const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
+				cwd: ROOT,
+				stdio: 'inherit'
+			});
+			if (built.status !== 0) throw new Error('vite build failed');
+			return;
+		} finally {
+			rmSync(lock, { recursive: true, force: true });
+		}
+	}
 }
 
 export async function freePort(): Promise<number> {

@@ -15,15 +15,17 @@ for _ in $(seq 1 20); do
 	su postgres -c "psql -qAtc 'select 1'" >/dev/null 2>&1 && break
 	sleep 0.5
 done
+# Databases of their own for test files that would otherwise race the data-layer test, which
+# empties twelvefold_ci's public schema: TEST_POSTGRES_URL with the database name + "_<suffix>".
+SUFFIXES="digest limits"
 su postgres -c "psql -qc \"DROP DATABASE IF EXISTS twelvefold_ci\"" >&2 || exit 0
-su postgres -c "psql -qc \"DROP DATABASE IF EXISTS twelvefold_ci_digest\"" >&2 || exit 0
+for suffix in $SUFFIXES; do
+	su postgres -c "psql -qc \"DROP DATABASE IF EXISTS twelvefold_ci_${suffix}\"" >&2 || exit 0
+done
 su postgres -c "psql -qc \"DROP ROLE IF EXISTS twelvefold_ci\"" >&2 || exit 0
 su postgres -c "psql -qc \"CREATE ROLE twelvefold_ci LOGIN PASSWORD 'twelvefold_ci'\"" >&2 || exit 0
 su postgres -c "psql -qc \"CREATE DATABASE twelvefold_ci OWNER twelvefold_ci\"" >&2 || exit 0
-# Databases of their own for test files that would otherwise race the data-layer test, which
-# empties twelvefold_ci's public schema: TEST_POSTGRES_URL with the database name + "_<suffix>".
-for suffix in digest limits; do
-	su postgres -c "psql -qc \"DROP DATABASE IF EXISTS twelvefold_ci_${suffix}\"" >&2 || exit 0
+for suffix in $SUFFIXES; do
 	su postgres -c "psql -qc \"CREATE DATABASE twelvefold_ci_${suffix} OWNER twelvefold_ci\"" >&2 || exit 0
 done
 port=$(pg_lsclusters -h | head -1 | awk '{print $3}')

@@ -115,6 +115,13 @@ function sittingPlace(page: Page): Promise<string> {
 /** Reveal the recall prompt on screen with the space bar and grade it with a number key. */
 export async function revealAndGrade(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
 	await page.keyboard.press('Space');
+	// A prompt that has only just come up may still be swapped for the server's version of the
+	// same lick, hidden again; a learner then presses once more, and so does this helper.
+	const nailed = page.getByRole('button', { name: /Nailed/ });
+	await expect(async () => {
+		if (!(await nailed.isVisible())) await page.keyboard.press('Space');
+		await expect(nailed).toBeVisible({ timeout: 1000 });
+	}).toPass({ timeout: 10_000 });
 	await gradeRevealed(page, grade);
 }
 
@@ -125,4 +132,14 @@ export async function gradeRevealed(page: Page, grade: 1 | 2 | 3 | 4): Promise<v
 	const before = await sittingPlace(page);
 	await page.keyboard.press(String(grade));
 	await expect.poll(() => sittingPlace(page)).not.toBe(before);
+	// The next prompt comes up with its line hidden, from the first frame it is on screen.
+	const shown = await page.evaluate(() => {
+		const drill = document.querySelector('[data-testid="drill"]');
+		if (drill?.getAttribute('data-phase') === 'done') return 'done';
+		// No prompt at all: the last one was graded and the summary is on its way.
+		return (
+			document.querySelector('[data-testid="prompt"]')?.getAttribute('data-revealed') ?? 'done'
+		);
+	});
+	expect(shown === 'done' || shown === 'no', `the next prompt was shown revealed`).toBe(true);
 }

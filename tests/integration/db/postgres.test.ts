@@ -65,15 +65,33 @@ describe.skipIf(!url)('class progress on PostgreSQL', () => {
 	it('gives the same progress rows and heat map as SQLite', async () => {
 		const db = openDb(url!);
 		await migrate(db);
-		const { buildScenario, comparable, expectedRows, SCENARIO_NOW } = await import('../classes/scenario');
+		const { buildScenario, comparable, expectedRows, SCENARIO_NOW } =
+			await import('../classes/scenario');
 		const { classProgress } = await import('../../../src/lib/server/classes/progress');
 		const { learnerDetail } = await import('../../../src/lib/server/classes/learner');
 		const scenario = await buildScenario();
-		const rows = await classProgress(scenario.teacher, scenario.classId, { sort: 'name' }, SCENARIO_NOW);
+		const rows = await classProgress(
+			scenario.teacher,
+			scenario.classId,
+			{ sort: 'name' },
+			SCENARIO_NOW
+		);
 		expect(rows.ok && comparable(rows.items)).toEqual(expectedRows);
 		const map = await learnerDetail(scenario.teacher, scenario.classId, scenario.ada.id);
 		if (!map.ok) throw new Error(map.message);
-		expect(map.view.rows[0].cells[0]).toEqual({ key: 'C', reviews: 10, recall: 1, tempo: 100, level: 'secure' });
-		expect(map.view.log[0]).toEqual({ day: '2026-03-10', reviews: 2, recalled: 1, licks: 2, minutes: 1 });
+		expect(map.view.rows[0].cells[0]).toEqual({
+			key: 'C',
+			reviews: 10,
+			recall: 1,
+			tempo: 100,
+			level: 'secure'
+		});
+		expect(map.view.log[0]).toEqual({
+			day: '2026-03-10',
+			reviews: 2,
+			recalled: 1,
+			licks: 2,
+			minutes: 1
+		});
 	});
 });

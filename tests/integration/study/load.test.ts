@@ -6,15 +6,13 @@
  * a timeout on every request and on the whole file. Builds the server first when `build/` is
  * missing or older than `src/`.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { createSession, SESSION_COOKIE_NAME } from '../../../src/lib/server/auth/session';
 import { Card } from '../../../src/lib/server/db/models/index';
 import { addCards } from '../../../src/lib/server/study/cards';
 import { openTestWorld, type TestWorld } from '../support/world';
-import { ROOT, ensureBuild, freePort } from '../support/built-server';
+import { ensureBuild, startBuiltServer, type BuiltServer } from '../support/built-server';
 import { makeLick, makeUser } from './world';
 
 const GRADERS = 200;
@@ -23,46 +21,18 @@ const PER_GRADER = 5;
 
 let world: TestWorld;
 let port: number;
-let server: ChildProcess | null = null;
+let server: BuiltServer | null = null;
 
 async function startServer(): Promise<void> {
-	server = spawn(process.execPath, ['build'], {
-		cwd: ROOT,
-		stdio: ['ignore', 'ignore', 'inherit'],
-		env: {
-			...process.env,
-			PORT: String(port),
-			HOST: '127.0.0.1',
-			ORIGIN: `http://127.0.0.1:${port}`,
-			DATA_DIR: world.dataDir,
-			DATABASE_URL: `sqlite:${path.join(world.dataDir, 'test.sqlite')}`,
-			SMTP_URL: '',
-			NODE_ENV: 'production'
-		}
-	});
-	const deadline = Date.now() + 30_000;
-	while (Date.now() < deadline) {
-		try {
-			const res = await fetch(`http://127.0.0.1:${port}/api/me`, {
-				signal: AbortSignal.timeout(1000)
-			});
-			if (res.status === 401) return;
-		} catch {
-			// not listening yet
-		}
-		await new Promise((r) => setTimeout(r, 100));
-	}
-	throw new Error('The built server did not start within 30 s.');
+	server = await startBuiltServer(world.dataDir);
+	// A restarted server listens on a port of its own; the graders read this one.
+	port = server.port;
 }
 
-function stopServer(signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
-	const child = server;
+async function stopServer(signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
+	const running = server;
 	server = null;
-	if (!child || child.exitCode !== null) return Promise.resolve();
-	return new Promise((resolve) => {
-		child.once('exit', () => resolve());
-		child.kill(signal);
-	});
+	await running?.stop(signal);
 }
 
 interface Grader {
@@ -75,7 +45,6 @@ let graders: Grader[] = [];
 beforeAll(async () => {
 	ensureBuild();
 	world = await openTestWorld();
-	port = await freePort();
 	const learners: Grader[] = [];
 	for (let i = 0; i < LEARNERS; i++) {
 		const learner = await makeUser();

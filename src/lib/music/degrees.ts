@@ -125,6 +125,23 @@ export function degreesOfShape(shape: ChordShape, quality: QualityId | null): re
 }
 
 /**
+ * The degree rows of a lick's chord symbols (null where a symbol names no chord), read once per
+ * quality layer: moving a layer to another key keeps every symbol's quality and shape.
+ * @example degreeRows([chordShape(chordOf('C7'))], [chordOf('C7')])[0]?.[4].label // '3'
+ */
+export function degreeRows(
+	shapes: readonly (ChordShape | null)[],
+	contexts: readonly (ChordContext | null)[]
+): (readonly Degree[] | null)[] {
+	const rows: (readonly Degree[] | null)[] = new Array(shapes.length);
+	for (let i = 0; i < shapes.length; i++) {
+		const shape = shapes[i];
+		rows[i] = shape && degreesOfShape(shape, contexts[i]?.quality ?? null);
+	}
+	return rows;
+}
+
+/**
  * The degree at some semitones above the root of a chord symbol (see `degreesOfShape`).
  * @example degreeInShape(chordShape(chordOf('C7#9')), 7, '7alt').label // '5'
  */

@@ -4,6 +4,7 @@
  */
 import { formatChordSymbol } from './chord-symbol';
 import { chordShape, type ChordShape } from './chord-shape';
+import { degreeRows, type Degree } from './degrees';
 import { remapNotes } from './remap';
 import { isQualityId } from './qualities';
 import {
@@ -31,6 +32,8 @@ export interface QualityLayer {
 	contexts: (ChordContext | null)[];
 	/** What each pitch class is over each chord symbol (degree, role, letter), or null. */
 	shapes: (ChordShape | null)[];
+	/** The twelve degrees over each chord symbol (by semitones above its root), or null. */
+	degrees: (readonly Degree[] | null)[];
 	warnings: MusicWarning[];
 }
 
@@ -94,7 +97,15 @@ export function layerFor(lick: PreparedLick, quality: QualityId | null): Quality
 		}
 	});
 	const shapes = contexts.map((c) => c && chordShape(c));
-	const layer = { quality, pitches, chordTexts, contexts, shapes, warnings: remapped.warnings };
+	const layer = {
+		quality,
+		pitches,
+		chordTexts,
+		contexts,
+		shapes,
+		degrees: degreeRows(shapes, contexts),
+		warnings: remapped.warnings
+	};
 	lick.layers.set(quality, layer);
 	return layer;
 }

@@ -6,6 +6,8 @@ import { parseAbc, type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
 import { parseChordSymbol } from './chord-symbol';
 import { chordShape } from './chord-shape';
+import { degreeRows } from './degrees';
+import { beatsPerBar } from './meter';
 import { isQualityId } from './qualities';
 import { type KeySignature } from './keys';
 import { parseNoteName, type SpelledNote } from './pitch';
@@ -28,6 +30,8 @@ export interface PreparedLick {
 	chordOfNote: number[];
 	/** Teachers' hand-written versions by quality; each replaces the computed re-mapping. */
 	versions: Map<QualityId, PreparedLick>;
+	/** Beats of a count-in bar for the lick's meter, read once. */
+	beatsPerBar: number;
 }
 
 /** Hand-written versions of a lick, by the quality each is written over (abc text each). */
@@ -100,12 +104,15 @@ function prepareOne(abc: string): PrepareResult {
 	const { tune } = parsed;
 	const first = tune.chordSymbols.find((c) => c.context !== null);
 	const quality = first?.context?.quality ?? null;
+	const contexts = tune.chordSymbols.map((c) => c.context);
+	const shapes = contexts.map((c) => c && chordShape(c));
 	const own: QualityLayer = {
 		quality,
 		pitches: tune.heads.map((h) => h.pitch),
 		chordTexts: tune.chordSymbols.map((c) => c.text),
-		contexts: tune.chordSymbols.map((c) => c.context),
-		shapes: tune.chordSymbols.map((c) => c.context && chordShape(c.context)),
+		contexts,
+		shapes,
+		degrees: degreeRows(shapes, contexts),
 		warnings: []
 	};
 	// A quoted text that names no chord stays as written; say so rather than drop it silently.
@@ -130,7 +137,8 @@ function prepareOne(abc: string): PrepareResult {
 			plans: new Map(),
 			keys: tune.keys.map((k) => k.key),
 			chordOfNote,
-			versions: new Map()
+			versions: new Map(),
+			beatsPerBar: beatsPerBar(tune.meter)
 		}
 	};
 }

@@ -44,18 +44,41 @@ export function plainText(template: string): string {
 	return template.replace(MARK, (_, _kind, _n, text: string) => text);
 }
 
+/** A template cut once into literal text and marks: a grid speaks each one per variant. */
+type Part = string | { kind: string; n: number; text: string };
+const compiled = new Map<string, readonly Part[]>();
+
+function partsOf(template: string): readonly Part[] {
+	let parts = compiled.get(template);
+	if (parts) return parts;
+	const out: Part[] = [];
+	let last = 0;
+	for (const m of template.matchAll(MARK)) {
+		if (m.index > last) out.push(template.slice(last, m.index));
+		out.push({ kind: m[1], n: Number(m[2]), text: m[3] });
+		last = m.index + m[0].length;
+	}
+	if (last < template.length) out.push(template.slice(last));
+	parts = out;
+	// Templates come from a lick's own notes and chords: bound the cache for a long-lived server.
+	if (compiled.size > 5000) compiled.clear();
+	compiled.set(template, parts);
+	return parts;
+}
+
 /**
  * A template spoken for one variant.
  * @example speakText('over ⟦k|C7⟧', speaker) // 'over D7' for the variant in D
  */
 export function speakText(template: string, speaker: Speaker): string {
-	return template.replace(MARK, (_, kind: string, n: string, text: string) =>
-		kind === 'k'
-			? speaker.chord(text)
-			: kind === 's'
-				? speaker.source(Number(n), text)
-				: speaker.output(Number(n), text)
-	);
+	let out = '';
+	for (const part of partsOf(template)) {
+		if (typeof part === 'string') out += part;
+		else if (part.kind === 'k') out += speaker.chord(part.text);
+		else if (part.kind === 's') out += speaker.source(part.n, part.text);
+		else out += speaker.output(part.n, part.text);
+	}
+	return out;
 }
 
 /**
@@ -63,9 +86,15 @@ export function speakText(template: string, speaker: Speaker): string {
  * @example speakWarnings([{ code: 'x', message: 'over C7', template: 'over ⟦k|C7⟧' }], speaker)
  */
 export function speakWarnings(list: readonly MusicWarning[], speaker: Speaker): MusicWarning[] {
-	return list.map((w) => {
-		if (w.template === undefined) return w;
+	const out: MusicWarning[] = new Array(list.length);
+	for (let i = 0; i < list.length; i++) {
+		const w = list[i];
+		if (w.template === undefined) {
+			out[i] = w;
+			continue;
+		}
 		const { template, ...rest } = w;
-		return { ...rest, message: speakText(template, speaker) };
-	});
+		out[i] = { ...rest, message: speakText(template, speaker) };
+	}
+	return out;
 }

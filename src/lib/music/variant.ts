@@ -6,7 +6,7 @@ import { chordTemplate, emitAbc, transposeChordSymbol } from './abc/emit';
 import { speakWarnings, type Speaker } from './speech';
 import { type ParsedAbc } from './abc/parse';
 import type { AbcError } from './abc/tokenize';
-import { degreesOfShape, readNote, type Degree, type DegreeLabel } from './degrees';
+import { readNote, type Degree, type DegreeLabel } from './degrees';
 import { analyseNotes, type Device } from './analysis';
 import {
 	fitToRange,
@@ -31,7 +31,6 @@ import {
 } from './pitch';
 import { simplifyNoteName, simplifySpelling } from './spelling';
 import { planKeys, shiftPlan, transposeNoteName, type KeyPlan } from './transpose';
-import { beatsPerBar } from './meter';
 import {
 	type ChordContext,
 	type KeyName,
@@ -288,17 +287,14 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 	// The octave chosen to fit the instrument's range moves what it sounds too: the notes (and so
 	// playback) must match the staff, an octave above the concert line or not.
 	const soundingPitches =
-		octaveShift === 0
-			? concertPitches
-			: concertPitches.map((p) => ({ ...p, octave: p.octave + octaveShift }));
-	// Degrees by semitones over each chord symbol, read once per symbol rather than once per note.
-	const rows = layer.shapes.map(
-		(shape, ci) => shape && degreesOfShape(shape, concertChords.contexts[ci]?.quality ?? null)
-	);
+		octaveShift === 0 ? concertPitches : shiftOctaves(concertPitches, octaveShift);
+	// Degrees by semitones over each chord symbol, read once per layer: moving keeps the quality.
+	const rows = layer.degrees;
 	const notes: VariantNote[] = new Array(tune.notes.length);
 	const { heads } = tune;
 	// What the learner reads, for sentences about the line: the written part when it differs.
-	const shown: SoundingNote[] | null = written === concert ? null : new Array(tune.notes.length);
+	const shown: SoundingNote[] | null =
+		options.analyse && written !== concert ? new Array(tune.notes.length) : null;
 	for (let i = 0; i < heads.length; i++) {
 		const h = heads[i];
 		if (h.grace || h.continuation) continue;
@@ -343,17 +339,6 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 	const firstKey = concert.keys[0];
 	const analysis = options.analyse ? analyseSafely(shown ?? notes) : null;
 	const shownKey = written.keys[0];
-	const speaker: Speaker = {
-		chord: (symbol) => transposeChordSymbol(symbol, written.interval, shownKey.accidentals),
-		source: (_, pitch) => {
-			const p = parsePitchName(pitch);
-			if (!p) return pitch;
-			return formatPitch(
-				simplifySpelling(transposePitch(p, written.interval), shownKey.accidentals)
-			);
-		},
-		output: (n, pitch) => notes[n]?.writtenPitch ?? pitch
-	};
 	const devices = analysis?.devices;
 	// K:none has no tonic: the key is the one asked for, if any.
 	const key = firstKey.none
@@ -373,7 +358,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 						)
 					)
 		: formatNoteName(shownKey.tonic);
-	return {
+	const result: VariantSuccess = {
 		ok: true,
 		abc,
 		key,
@@ -382,7 +367,7 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 		writtenTonic,
 		mode: firstKey.mode,
 		meter: tune.meter,
-		beatsPerBar: beatsPerBar(tune.meter),
+		beatsPerBar: lick.beatsPerBar,
 		tempo: tune.tempo,
 		quality: layer.quality,
 		instrument,
@@ -395,12 +380,46 @@ export function renderVariant(lick: PreparedLick, options: VariantOptions = {}):
 				fitWarnings,
 				analysis?.warning ? [analysis.warning] : NONE
 			),
-			speaker
+			new VariantSpeaker(written.interval, shownKey.accidentals, notes)
 		),
 		notes,
-		...(devices ? { devices } : {}),
 		handWritten: false
 	};
+	if (devices) result.devices = devices;
+	return result;
+}
+
+/** How sentences about a lick name its chords and notes in the variant the learner reads. */
+class VariantSpeaker implements Speaker {
+	constructor(
+		private readonly by: Steps,
+		private readonly accidentals: readonly number[],
+		private readonly notes: readonly VariantNote[]
+	) {}
+
+	chord(symbol: string): string {
+		return transposeChordSymbol(symbol, this.by, this.accidentals);
+	}
+
+	source(_note: number, pitch: string): string {
+		const p = parsePitchName(pitch);
+		if (!p) return pitch;
+		return formatPitch(simplifySpelling(transposePitch(p, this.by), this.accidentals));
+	}
+
+	output(note: number, pitch: string): string {
+		return this.notes[note]?.writtenPitch ?? pitch;
+	}
+}
+
+/** The same pitches some octaves away. */
+function shiftOctaves(pitches: readonly SpelledPitch[], octaves: number): SpelledPitch[] {
+	const out: SpelledPitch[] = new Array(pitches.length);
+	for (let i = 0; i < pitches.length; i++) {
+		const p = pitches[i];
+		out[i] = { letter: p.letter, alt: p.alt, octave: p.octave + octaves };
+	}
+	return out;
 }
 
 /**

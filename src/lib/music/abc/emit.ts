@@ -59,6 +59,12 @@ interface Skeleton {
 
 const skeletons = new WeakMap<ParsedAbc, Skeleton>();
 
+/** Accidental in force per letter in the bar, and per letter and octave (octaves -1..14). */
+const BY_LETTER = new Int8Array(7);
+const BY_OCTAVE = new Int8Array(7 * 16);
+/** Slots of BY_OCTAVE set in the bar (each at most once per bar). */
+const TOUCHED = new Int16Array(7 * 16);
+
 function skeletonOf(tune: ParsedAbc): Skeleton {
 	let sk = skeletons.get(tune);
 	if (sk) return sk;
@@ -110,10 +116,12 @@ function skeletonOf(tune: ParsedAbc): Skeleton {
 export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 	const { tokens, propagation, heads } = tune;
 	const { steps, args } = skeletonOf(tune);
-	const byLetter = new Int8Array(7).fill(UNSET);
-	// Letter and octave: octaves -1..14 are plenty for any instrument.
-	const byOctave = new Int8Array(7 * 16).fill(UNSET);
-	const touched: number[] = [];
+	// Scratch state shared by every call (emitting is synchronous): a grid emits a hundred
+	// variants, and fresh typed arrays for each cost more than the walk itself.
+	const byLetter = BY_LETTER.fill(UNSET);
+	const byOctave = BY_OCTAVE.fill(UNSET);
+	const touched = TOUCHED;
+	let touchedCount = 0;
 	let out = '';
 	for (let si = 0; si < steps.length; si++) {
 		switch (steps[si]) {
@@ -140,7 +148,7 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 					if (acc === undefined) throw new RangeError(`Cannot write alteration ${p.alt} in abc`);
 					if (propagation !== 'not') {
 						byLetter[p.letter] = p.alt;
-						if (byOctave[slot] === UNSET) touched.push(slot);
+						if (byOctave[slot] === UNSET) touched[touchedCount++] = slot;
 						byOctave[slot] = p.alt;
 					}
 				}
@@ -173,8 +181,8 @@ export function emitAbc(tune: ParsedAbc, plan: EmitPlan): string {
 			}
 			case Step.Bar:
 				byLetter.fill(UNSET);
-				for (const i of touched) byOctave[i] = UNSET;
-				touched.length = 0;
+				for (let i = 0; i < touchedCount; i++) byOctave[touched[i]] = UNSET;
+				touchedCount = 0;
 				break;
 		}
 	}

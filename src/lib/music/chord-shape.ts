@@ -24,10 +24,11 @@ export interface ChordShape {
 }
 
 /**
- * Degree label of an interval above a chord root; `sixth` names 9 semitones 6 rather than 13.
+ * Degree label of an interval above a chord root; `sixth` names 9 semitones 6 rather than 13,
+ * `sus` a perfect fourth 4 rather than 11 (it stands in for the third).
  * @example intervalLabel(parseInterval('9A'), false) // '#9'
  */
-export function intervalLabel(iv: Steps, sixth: boolean): DegreeLabel {
+export function intervalLabel(iv: Steps, sixth: boolean, sus = false): DegreeLabel {
 	const n = ((iv.steps % 7) + 7) % 7;
 	const s = mod12(iv.semitones);
 	switch (n) {
@@ -38,7 +39,7 @@ export function intervalLabel(iv: Steps, sixth: boolean): DegreeLabel {
 		case 2:
 			return s === 3 ? 'b3' : '3';
 		case 3:
-			return s === 6 ? '#11' : '11';
+			return s === 6 ? '#11' : sus && s === 5 ? '4' : '11';
 		case 4:
 			return s === 6 ? 'b5' : s === 8 ? 'b13' : '5';
 		case 5:
@@ -72,11 +73,12 @@ function buildShape(suffix: string, quality: QualityId | null): ChordShape {
 		// tonal's dictionary knows `7#9`, `mMaj7`, `13`, `7b13`…; an unknown type adds nothing.
 		const own = chordToneIntervals(suffix);
 		const sixth = own.some((i) => i === '6M' || i === '6m');
+		const sus = suffix.includes('sus');
 		for (const name of own) {
 			const iv = parseInterval(name);
 			const s = mod12(iv.semitones);
 			spelling[s] = iv;
-			labels[s] = intervalLabel(iv, sixth);
+			labels[s] = intervalLabel(iv, sixth, sus);
 			roles[s] = 'chord-tone';
 		}
 	}

@@ -21,6 +21,7 @@ export const DEGREE_LABELS = [
 	'#9',
 	'b3',
 	'3',
+	'4',
 	'11',
 	'#11',
 	'b5',
@@ -58,6 +59,7 @@ export const LABEL_NUMBER: Readonly<Record<DegreeLabel, number>> = {
 	'#9': 2,
 	b3: 3,
 	'3': 3,
+	'4': 4,
 	'11': 4,
 	'#11': 4,
 	b5: 5,
@@ -245,7 +247,9 @@ export const QUALITY_ROWS: readonly QualityRow[] = [
 		},
 		tensions: ['2M', '6M'],
 		avoid: ['3M'],
-		// The fourth replaces the third (C F G Bb).
+		// The fourth replaces the third (C F G Bb), and is named as the symbol names it: the 4, not
+		// the 11 (common practice: “sus4”).
+		labels: { 5: '4' },
 		standIn: { 3: '4P' }
 	}
 ];

@@ -24,10 +24,24 @@ describe('degreeOf', () => {
 		expect(role(pitch, 'E7')).toBe(expectedRole);
 	});
 
-	it('calls A a chord tone 11 on E7sus4, where it is an avoid note on E7', () => {
-		expect(degreeOf('A4', chordOf('E7sus4'))).toMatchObject({ label: '11', role: 'chord-tone' });
+	// Common practice: the suspended fourth is named as the symbol names it, “sus4”, the 4; the
+	// same pitch class is the 11 over an eleventh chord, which stacks it above the 9 (tonal 6.5.1
+	// `Chord.get('C11').intervals` = 1P 5P 7m 9M 11P).
+	it('calls A the chord tone 4 on E7sus4, where it is an avoid 11 on E7', () => {
+		expect(degreeOf('A4', chordOf('E7sus4'))).toMatchObject({ label: '4', role: 'chord-tone' });
 		expect(degreeOf('G#4', chordOf('E7sus4'))).toMatchObject({ label: '3', role: 'avoid' });
+		expect(degreeOf('A4', chordOf('E7'))).toMatchObject({ label: '11', role: 'avoid' });
 	});
+
+	it.each(['C', 'Db', 'D', 'Eb', 'E', 'F', 'F#', 'G', 'Ab', 'A', 'Bb', 'B'])(
+		'names the fourth over 7sus4, sus4 and 9sus4 on %s the 4, and over the 11 chord the 11',
+		(root) => {
+			const fourth = Note.transpose(root, '4P');
+			for (const suffix of ['7sus4', 'sus4', '9sus4'])
+				expect(degreeOf(`${fourth}4`, chordOf(root + suffix)).label).toBe('4');
+			expect(degreeOf(`${fourth}4`, chordOf(root + '11')).label).toBe('11');
+		}
+	);
 
 	it('labels the D7 chromatic fill F# F E Eb D as 3 #9 9 b9 R', () => {
 		expect(['F#4', 'F4', 'E4', 'Eb4', 'D4'].map((p) => label(p, 'D7'))).toEqual([

@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { ClassGroup, Comment, Review, User } from '../../../src/lib/server/db/models/index';
 import { listAssignments } from '../../../src/lib/server/classes/assignments';
-import { classProgress } from '../../../src/lib/server/classes/progress';
+import { classProgress, WEAK_KEY_MIN_REVIEWS } from '../../../src/lib/server/classes/progress';
+import { normalizeKey } from '../../../src/lib/server/classes/keys';
+import { keyPitchClass } from '../../../src/lib/practice/keys';
 import { learnerDetail } from '../../../src/lib/server/classes/learner';
 import { DEMO_CLASS_NAME, HISTORY_DAYS } from '../../../src/lib/server/demo/history';
 import { seedDemo } from '../../../src/lib/server/demo/seed';
@@ -52,10 +54,32 @@ describe('the demo history', () => {
 		};
 		expect(await days('guitar@example.com')).toBeGreaterThan(await days('trumpet@example.com'));
 		expect(await days('guitar@example.com')).toBeLessThanOrEqual(HISTORY_DAYS);
-		// Ines fumbles the keys with many sharps.
-		expect(ines.weakestKeys.length).toBeGreaterThan(0);
-		// Her weakest key is one of them; a chance slip elsewhere may follow it.
-		expect(['E', 'B', 'Gb', 'A']).toContain(ines.weakestKeys[0]);
+		// Ines fumbles the keys with many sharps (concert E, B, F#/Gb, A). Which key the drill draws
+		// depends on card ids, which differ from run to run, and she has a few dozen reviews: the
+		// keys with sharps are asserted weaker as a whole, and her weakest keys are checked against
+		// the same figure worked out here from her reviews.
+		const sharp = new Set([4, 11, 6, 9]);
+		const inesUser = (await User.findOne({ where: { email: 'alto@example.com' } }))!;
+		const recall = { sharp: [0, 0], other: [0, 0] };
+		const perKey = new Map<string, [number, number]>();
+		for (const r of await Review.findAll({ where: { userId: inesUser.id } })) {
+			const side = sharp.has(keyPitchClass(r.key) ?? -1) ? recall.sharp : recall.other;
+			side[0] += r.grade > 1 ? 1 : 0;
+			side[1] += 1;
+			const key = normalizeKey(r.key) ?? r.key;
+			const acc = perKey.get(key) ?? [0, 0];
+			perKey.set(key, [acc[0] + (r.grade > 1 ? 1 : 0), acc[1] + 1]);
+		}
+		expect(recall.sharp[1]).toBeGreaterThan(0);
+		expect(recall.sharp[0] / recall.sharp[1]).toBeLessThan(recall.other[0] / recall.other[1]);
+		const weakest = [...perKey]
+			.filter(([, [ok, n]]) => n >= WEAK_KEY_MIN_REVIEWS && ok < n)
+			.sort(
+				([a, [okA, nA]], [b, [okB, nB]]) => okA / nA - okB / nB || nB - nA || a.localeCompare(b)
+			)
+			.slice(0, 3)
+			.map(([key]) => key);
+		expect(ines.weakestKeys).toEqual(weakest);
 		const map = await learnerDetail(teacher, cls.id, sam.userId);
 		if (!map.ok) throw new Error(map.message);
 		// Sam drills around the cycle of fourths: his columns follow it.

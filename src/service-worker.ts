@@ -9,7 +9,13 @@
  * drill page keeps them in IndexedDB and sends them itself.
  */
 import { build, files, version } from '$service-worker';
-import { DRILL_CACHE, SHELL_CACHE_PREFIX, isDrillPath, isSignOut } from '$lib/drill/offline-cache';
+import {
+	DRILL_CACHE,
+	KEPT_COPY_HEADER,
+	SHELL_CACHE_PREFIX,
+	isDrillPath,
+	isSignOut
+} from '$lib/drill/offline-cache';
 
 const sw = self as unknown as ServiceWorkerGlobalScope;
 const SHELL = `${SHELL_CACHE_PREFIX}${version}`;
@@ -47,8 +53,11 @@ async function networkFirst(request: Request): Promise<Response> {
 		return response;
 	} catch (err) {
 		const copy = await cache.match(request, { ignoreSearch: true });
-		if (copy) return copy;
-		throw err;
+		if (!copy) throw err;
+		// Marked, so that the page can say it is offline.
+		const headers = new Headers(copy.headers);
+		headers.set(KEPT_COPY_HEADER, '1');
+		return new Response(copy.body, { status: copy.status, statusText: copy.statusText, headers });
 	}
 }
 

@@ -9,6 +9,7 @@ test('a learner picks the alto saxophone, it is kept, and the try-it box starts 
 	await signInAsNew(page, request, 'learner');
 
 	await page.goto('/settings');
+	await expect(page.locator('html')).toHaveAttribute('data-live', 'yes');
 	const practice = page.getByRole('region', { name: 'Practice' });
 	await practice.getByLabel('Instrument').selectOption({ label: 'E-flat alto saxophone' });
 	await practice.getByRole('radio', { name: /Round the cycle of fourths/ }).check();
@@ -34,6 +35,7 @@ test('a time zone that does not exist is refused beside its field and nothing is
 	await signInAsNew(page, request, 'learner');
 
 	await page.goto('/settings');
+	await expect(page.locator('html')).toHaveAttribute('data-live', 'yes');
 	const zone = page.getByLabel('Time zone');
 	await zone.fill('Nowhere/Atlantis');
 	await page.getByLabel('Instrument').selectOption('trumpet');
@@ -51,6 +53,7 @@ test('the practice form works from the keyboard alone', async ({ page, request }
 	await signInAsNew(page, request, 'learner');
 
 	await page.goto('/settings');
+	await expect(page.locator('html')).toHaveAttribute('data-live', 'yes');
 	const weakest = page.getByRole('radio', { name: /Weakest keys first/ });
 	await tabTo(page, weakest, 40);
 	// Arrow keys move within a radio group, as everywhere.

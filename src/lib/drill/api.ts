@@ -44,7 +44,7 @@ export const fetchSender: Sender = {
 				body: JSON.stringify(body)
 			});
 		} catch {
-			return { kind: 'retry', message: 'No connection.' };
+			return { kind: 'retry', message: 'No connection.', offline: true };
 		}
 		const problem = await classify(res);
 		if (problem) return problem;
@@ -55,7 +55,7 @@ export const fetchSender: Sender = {
 		try {
 			res = await fetch(`/api/drill/reviews/${encodeURIComponent(reviewId)}`, { method: 'DELETE' });
 		} catch {
-			return { kind: 'retry', message: 'No connection.' };
+			return { kind: 'retry', message: 'No connection.', offline: true };
 		}
 		return (await classify(res)) ?? { kind: 'sent' };
 	}

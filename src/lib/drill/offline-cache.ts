@@ -8,6 +8,12 @@
 export const SHELL_CACHE_PREFIX = 'twelvefold-shell-';
 export const DRILL_CACHE = 'twelvefold-drill';
 
+/**
+ * Header on an answer the service worker served from its kept copy because the network failed:
+ * the page then knows it is offline even where the browser's online flag says otherwise.
+ */
+export const KEPT_COPY_HEADER = 'x-twelvefold-kept-copy';
+
 /** Same-origin GET paths answered from the network when it works and from the cache when not. */
 const DRILL_PATHS = ['/drill', '/drill/__data.json', '/api/drill/today'];
 

@@ -30,8 +30,11 @@ export interface OutboxStore {
 /** The result of one attempt to send an op. */
 export type SendResult =
 	| { kind: 'sent'; answer?: ReviewAnswer }
-	/** No network, a server error or a rate limit: keep the op and try again later. */
-	| { kind: 'retry'; message: string }
+	/**
+	 * No network, a server error or a rate limit: keep the op and try again later. `offline` when
+	 * the request never reached a server (the browser's own online flag is not to be trusted).
+	 */
+	| { kind: 'retry'; message: string; offline?: boolean }
 	/** Signed out: keep everything until the learner signs in again. */
 	| { kind: 'signed-out' }
 	/** The server will never take it (a 4xx other than 401/408/429): drop it and say so. */
@@ -48,6 +51,9 @@ export interface FlushReport {
 	/** Why sending stopped with ops still waiting, if it did. */
 	stopped: 'retry' | 'signed-out' | null;
 	waiting: number;
+	/** What the attempt showed of the network: `offline` no request got through, `online` a
+	 * server answered, null nothing was sent. */
+	network: 'online' | 'offline' | null;
 }
 
 /**
@@ -114,19 +120,29 @@ export class Outbox {
 		onSent?: (op: OutboxOp, answer: ReviewAnswer | undefined) => void
 	): Promise<FlushReport> {
 		return this.#serial(async () => {
-			const report: FlushReport = { sent: 0, refused: [], stopped: null, waiting: 0 };
+			const report: FlushReport = {
+				sent: 0,
+				refused: [],
+				stopped: null,
+				waiting: 0,
+				network: null
+			};
 			const ops = sendOrder(await this.store.list(this.userId));
 			let i = 0;
 			for (; i < ops.length; i++) {
 				const op = ops[i];
 				let result: SendResult;
+				let asked = true;
 				if (op.kind === 'review') {
 					result = await sender.review(op.body);
 				} else {
 					const reviewId = await this.store.reviewIdOf(op.clientId);
 					// Never acknowledged and no longer waiting: nothing reached the server to take back.
+					asked = reviewId !== null;
 					result = reviewId ? await sender.undo(reviewId) : { kind: 'sent' };
 				}
+				if (asked)
+					report.network = result.kind === 'retry' && result.offline ? 'offline' : 'online';
 				if (result.kind === 'retry' || result.kind === 'signed-out') {
 					report.stopped = result.kind;
 					break;

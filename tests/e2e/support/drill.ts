@@ -128,7 +128,13 @@ export async function revealAndGrade(page: Page, grade: 1 | 2 | 3 | 4): Promise<
 /** Grade the revealed prompt with a number key and wait until the sitting has moved on. */
 export async function gradeRevealed(page: Page, grade: 1 | 2 | 3 | 4): Promise<void> {
 	await expect(page.getByTestId('prompt')).toHaveAttribute('data-revealed', 'yes');
-	await expect(page.getByRole('button', { name: /Nailed/ })).toBeVisible();
+	// The same swap can come between the reveal and here (a loaded machine answers late): the
+	// line is revealed once more, as a learner would.
+	const nailed = page.getByRole('button', { name: /Nailed/ });
+	await expect(async () => {
+		if (!(await nailed.isVisible())) await page.keyboard.press('Space');
+		await expect(nailed).toBeVisible({ timeout: 1000 });
+	}).toPass({ timeout: 10_000 });
 	const before = await sittingPlace(page);
 	await page.keyboard.press(String(grade));
 	await expect.poll(() => sittingPlace(page)).not.toBe(before);

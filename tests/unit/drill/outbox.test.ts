@@ -20,12 +20,12 @@ function server(answers: Record<string, SendResult> = {}) {
 	let online = true;
 	const sender: Sender = {
 		async review(b) {
-			if (!online) return { kind: 'retry', message: 'No connection.' };
+			if (!online) return { kind: 'retry', message: 'No connection.', offline: true };
 			received.push(`POST ${b.clientId} ${b.reviewedAt}`);
 			return answers[b.clientId] ?? { kind: 'sent', answer: answer(`r-${b.clientId}`) };
 		},
 		async undo(reviewId) {
-			if (!online) return { kind: 'retry', message: 'No connection.' };
+			if (!online) return { kind: 'retry', message: 'No connection.', offline: true };
 			received.push(`DELETE ${reviewId}`);
 			return { kind: 'sent' };
 		}
@@ -68,7 +68,8 @@ describe('Outbox', () => {
 			sent: 0,
 			refused: [],
 			stopped: 'retry',
-			waiting: 2
+			waiting: 2,
+			network: 'offline'
 		});
 		expect(await box.count()).toBe(2);
 
@@ -77,13 +78,26 @@ describe('Outbox', () => {
 		const report = await box.flush(net.sender, (op, a) =>
 			heard.push(`${op.clientId}→${a?.review.id}`)
 		);
-		expect(report).toEqual({ sent: 2, refused: [], stopped: null, waiting: 0 });
+		expect(report).toEqual({ sent: 2, refused: [], stopped: null, waiting: 0, network: 'online' });
 		expect(net.received).toEqual([
 			'POST a 2026-03-01T19:00:00.000Z',
 			'POST b 2026-03-01T19:01:00.000Z'
 		]);
 		expect(heard).toEqual(['a→r-a', 'b→r-b']);
 		expect(await box.count()).toBe(0);
+	});
+
+	it('says what a flush learned of the network: a server error is not a lost connection', async () => {
+		const box = new Outbox(new MemoryOutboxStore(), 'u1');
+		expect((await box.flush(server().sender)).network).toBeNull();
+		await box.addReview(body('a'));
+		const busy = server({ a: { kind: 'retry', message: 'The server answered 503.' } });
+		expect(await box.flush(busy.sender)).toMatchObject({ stopped: 'retry', network: 'online' });
+		// An undo of a grade that never reached the server sends nothing, and so learns nothing.
+		await box.addUndo('a');
+		const down = server();
+		down.setOnline(false);
+		expect((await box.flush(down.sender)).network).toBeNull();
 	});
 
 	it('drops a waiting grade on undo, so it never reaches the server', async () => {

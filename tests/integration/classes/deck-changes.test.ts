@@ -187,3 +187,56 @@ describe('cards put back to work on rejoining', () => {
 		]);
 	});
 });
+
+describe('a lick taken out of an assigned deck, or the deck reordered', () => {
+	test('retires the members’ still-new cards of that lick; one already introduced stays, and so do its reviews', async () => {
+		const { teacher, deck, licks, learners } = await assignedDeck(['m7'], 2);
+		const [first, second] = learners;
+		// The first learner has already met the second lick over its home quality.
+		const met = (await cardsOf(first.id, licks[1].id)).find((c) => c.quality === '7')!;
+		await met.update({ state: 2, introducedDay: '2026-03-02', reps: 1 });
+		await updateDeck(teacher, deck.id, { lickIds: [licks[0].id] }, LATER);
+		for (const learner of [first, second]) {
+			const cards = await cardsOf(learner.id, licks[1].id);
+			for (const card of cards) {
+				if (card.id === met.id) expect(card.retiredAt).toBeNull();
+				else expect(card.retiredAt?.getTime()).toBe(LATER.getTime());
+			}
+			// The lick still in the deck is untouched.
+			expect((await cardsOf(learner.id, licks[0].id)).every((c) => c.retiredAt === null)).toBe(
+				true
+			);
+		}
+	});
+
+	test('a lick put back comes back to work at its new place', async () => {
+		const { teacher, deck, licks, learners } = await assignedDeck(['m7'], 1);
+		await updateDeck(teacher, deck.id, { lickIds: [licks[1].id] }, LATER);
+		await updateDeck(teacher, deck.id, { lickIds: [licks[1].id, licks[0].id] }, LATER);
+		const cards = await cardsOf(learners[0].id);
+		expect(cards.map((c) => [c.lickId, c.quality, c.newPosition, c.retiredAt])).toEqual([
+			[licks[1].id, '7', 0, null],
+			[licks[1].id, 'm7', 1, null],
+			[licks[0].id, '7', 16, null],
+			[licks[0].id, 'm7', 17, null]
+		]);
+	});
+
+	test('reordering moves the still-new cards with their licks, each quality in its slot; an introduced card keeps its place', async () => {
+		const { teacher, deck, licks, learners } = await assignedDeck(['m7'], 1);
+		const [learner] = learners;
+		const met = (await cardsOf(learner.id, licks[0].id)).find((c) => c.quality === 'm7')!;
+		await met.update({ state: 2, introducedDay: '2026-03-02', reps: 1 });
+		const version = (await Card.findByPk(met.id))!.version;
+		await updateDeck(teacher, deck.id, { lickIds: [licks[1].id, licks[0].id] }, LATER);
+		const positions = Object.fromEntries(
+			(await cardsOf(learner.id)).map((c) => [
+				`${c.lickId === licks[0].id ? 'a' : 'b'}${c.quality}`,
+				c.newPosition
+			])
+		);
+		expect(positions).toEqual({ b7: 0, bm7: 1, a7: 16, am7: 1 });
+		// Moving new cards is not a change a review could collide with.
+		expect((await Card.findByPk(met.id))!.version).toBe(version);
+	});
+});

@@ -132,6 +132,62 @@ export async function createCardsForDeckLicks(
 }
 
 /**
+ * A deck assigned to classes was edited: licks taken out of it retire their still-new cards in
+ * every class it is assigned to (as when any source stops: cards already introduced, and every
+ * review, stay), and the still-new cards follow the deck's new order (`lickIds`, the whole deck).
+ * A lick put back is put back to work by `createCardsForDeckLicks`.
+ * @example await followDeckEdit(deckId, [b, a], [c], now, t) // c's new cards retired, b before a
+ */
+export async function followDeckEdit(
+	deckId: string,
+	lickIds: readonly string[],
+	removed: readonly string[],
+	now: Date,
+	transaction: Transaction
+): Promise<void> {
+	const assignments = await Assignment.findAll({
+		where: { deckId },
+		attributes: ['id'],
+		transaction
+	});
+	if (assignments.length === 0) return;
+	const ids = assignments.map((a) => a.id);
+	if (removed.length) {
+		await Card.update(
+			{ retiredAt: now, version: literal('version + 1') as unknown as number },
+			{
+				where: {
+					assignmentId: { [Op.in]: ids },
+					lickId: { [Op.in]: [...removed] },
+					state: 0,
+					introducedDay: null,
+					retiredAt: null
+				},
+				transaction
+			}
+		);
+	}
+	// A new card's place is its lick's place in the deck, its quality's slot kept. Only the
+	// position moves: the card's version (what a review compares) is left alone.
+	for (let index = 0; index < lickIds.length; index++) {
+		await getDb().query(
+			`UPDATE cards SET new_position = :base + (new_position % :slots)
+			  WHERE assignment_id IN (:ids) AND lick_id = :lickId AND state = 0
+			    AND introduced_day IS NULL AND new_position <> :base + (new_position % :slots)`,
+			{
+				replacements: {
+					base: index * QUALITY_SLOTS,
+					slots: QUALITY_SLOTS,
+					ids,
+					lickId: lickIds[index]
+				},
+				transaction
+			}
+		);
+	}
+}
+
+/**
  * Retire the still-new cards of the given assignments (all their learners, or only `userIds`).
  * @example await retireNewCards([assignmentId], null, now, t) // number of cards retired
  */

@@ -1,6 +1,6 @@
 import { Op, type Transaction } from 'sequelize';
 import { getDb } from '../db/index';
-import { createCardsForDeckLicks } from '../classes/class-cards';
+import { createCardsForDeckLicks, followDeckEdit } from '../classes/class-cards';
 import { Assignment, Deck, DeckLick, Lick, User } from '../db/models/index';
 import { readableDeck, readableLick, readableLickSql, type Actor } from './access';
 import { deckNotFound, LibraryError } from './errors';
@@ -252,7 +252,8 @@ export async function createDeck(actor: Actor, input: DeckInput): Promise<DeckDe
 
 /**
  * Rename, describe or reorder the actor's own deck (`lickIds` replaces the list and its order).
- * Licks new to a deck that is assigned to classes become cards of the classes' members.
+ * Licks new to a deck that is assigned to classes become cards of the classes' members; licks
+ * taken out retire the members' still-new cards of them; new cards follow the new order.
  * @example await updateDeck(user, id, { lickIds: [b, a] })
  */
 export async function updateDeck(
@@ -272,9 +273,13 @@ export async function updateDeck(
 			});
 			const had = new Set(before.map((r) => r.lickId));
 			await writeOrder(row.id, input.lickIds, transaction);
-			// A class the deck is assigned to gets the new licks now, not at its next join or edit.
+			// A class the deck is assigned to gets the new licks now, not at its next join or edit;
+			// licks taken out stop coming as new, and new cards follow the deck's order.
 			const added = input.lickIds.filter((lickId) => !had.has(lickId));
+			const kept = new Set(input.lickIds);
+			const removed = [...had].filter((lickId) => !kept.has(lickId));
 			await createCardsForDeckLicks(row.id, added, now, transaction);
+			await followDeckEdit(row.id, input.lickIds, removed, now, transaction);
 		}
 		const changes: Partial<{ name: string; description: string }> = {};
 		if (input.name !== undefined) changes.name = input.name;

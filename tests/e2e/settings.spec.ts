@@ -70,3 +70,30 @@ test('the practice form works from the keyboard alone', async ({ page, request }
 	const me = await page.request.get('/api/me');
 	expect((await me.json()).settings).toMatchObject({ keyOrder: 'fourths', digestEnabled: false });
 });
+
+test('a choice made before the page is live is kept through hydration and saved', async ({
+	page,
+	request
+}) => {
+	await signInAsNew(page, request, 'learner');
+	// Hold the app's scripts back, as a slow phone network would, and choose meanwhile.
+	let release!: () => void;
+	const held = new Promise<void>((resolve) => (release = resolve));
+	await page.route(/\/_app\/immutable\/entry\//, async (route) => {
+		await held;
+		await route.continue();
+	});
+	await page.goto('/settings', { waitUntil: 'domcontentloaded' });
+	const practice = page.getByRole('region', { name: 'Practice' });
+	await practice.getByLabel('Instrument').selectOption('trumpet');
+	await practice.getByLabel('Minutes a day').fill('35');
+	await expect(page.locator('html')).not.toHaveAttribute('data-live', 'yes');
+	release();
+	await expect(page.locator('html')).toHaveAttribute('data-live', 'yes');
+	await expect(practice.getByLabel('Instrument')).toHaveValue('trumpet');
+	await expect(practice.getByLabel('Minutes a day')).toHaveValue('35');
+	await practice.getByRole('button', { name: 'Save practice settings' }).click();
+	await expect(practice.getByRole('status')).toHaveText(/Saved/);
+	const me = await page.request.get('/api/me');
+	expect((await me.json()).settings).toMatchObject({ instrument: 'trumpet', dailyMinutes: 35 });
+});

@@ -9,11 +9,9 @@
  */
 import { fork, spawn, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
-import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
 import { resetConfig } from '../src/lib/server/config';
 import { closeDb, openDb } from '../src/lib/server/db/index';
@@ -27,8 +25,8 @@ import { configureEngineBudget } from '../src/lib/server/music/render';
 import { buildQueue, type QueueCard } from '../src/lib/practice/queue';
 import { dayBounds, practiceDay } from '../src/lib/practice/day';
 import { DEMO_LICKS } from '../src/lib/demo/licks';
+import { freePort, ROOT } from '../tests/integration/support/built-server';
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const CARDS = 5000;
 const QUALITIES = ['7', 'm7', 'maj7', 'm7b5', '7alt', '6', 'm6', 'dim7', '7sus4'];
 const DAY = 86_400_000;
@@ -36,17 +34,6 @@ const DAY = 86_400_000;
 function median(xs: number[]): number {
 	const s = [...xs].sort((a, b) => a - b);
 	return s[Math.floor(s.length / 2)];
-}
-
-async function freePort(): Promise<number> {
-	return new Promise((resolve, reject) => {
-		const s = createServer();
-		s.once('error', reject);
-		s.listen(0, '127.0.0.1', () => {
-			const { port } = s.address() as { port: number };
-			s.close(() => resolve(port));
-		});
-	});
 }
 
 const dataDir = mkdtempSync(path.join(os.tmpdir(), 'twelvefold-bench-'));

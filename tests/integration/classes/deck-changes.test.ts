@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { Card, Lick } from '../../../src/lib/server/db/models/index';
 import { createAssignment, updateAssignment } from '../../../src/lib/server/classes/assignments';
-import { createCardsForDeckLicks } from '../../../src/lib/server/classes/class-cards';
+import { followDeckEdit } from '../../../src/lib/server/classes/class-cards';
 import { createClass } from '../../../src/lib/server/classes/classes';
 import { joinByCode, leaveClass } from '../../../src/lib/server/classes/members';
 import { updateDeck } from '../../../src/lib/server/library/decks';
@@ -96,12 +96,12 @@ describe('a lick added to an assigned deck', () => {
 		await updateDeck(teacher, deck.id, { lickIds: order }, LATER);
 		await updateDeck(teacher, deck.id, { lickIds: [...order].reverse() }, LATER);
 		await world.db.transaction((transaction) =>
-			createCardsForDeckLicks(deck.id, [lick.id], LATER, transaction)
+			followDeckEdit(deck.id, order, { added: [lick.id], removed: [] }, LATER, transaction)
 		);
 		await Promise.all(
 			[1, 2, 3].map(() =>
 				world.db.transaction((transaction) =>
-					createCardsForDeckLicks(deck.id, [lick.id], LATER, transaction)
+					followDeckEdit(deck.id, order, { added: [lick.id], removed: [] }, LATER, transaction)
 				)
 			)
 		);

@@ -103,16 +103,14 @@ export async function createAssignmentCards(
  * the lick's place in the deck; keys and pace are the assignment's, read by the drill). Paused
  * assignments and archived classes get the cards too, and the drill holds them back until they
  * resume, as it does with every other card of theirs.
- * @example await createCardsForDeckLicks(deckId, [newLickId], now, t) // 6 for 3 members, one quality besides home
  */
-export async function createCardsForDeckLicks(
+async function createCardsForAssignments(
+	assignments: readonly Assignment[],
 	deckId: string,
 	lickIds: readonly string[],
 	now: Date,
 	transaction: Transaction
 ): Promise<number> {
-	if (lickIds.length === 0) return 0;
-	const assignments = await Assignment.findAll({ where: { deckId }, transaction });
 	let made = 0;
 	for (const assignment of assignments) {
 		const members = await ClassMember.findAll({
@@ -132,70 +130,57 @@ export async function createCardsForDeckLicks(
 }
 
 /**
- * A deck assigned to classes was edited: licks taken out of it retire their still-new cards in
- * every class it is assigned to (as when any source stops: cards already introduced, and every
- * review, stay), and the still-new cards follow the deck's new order (`lickIds`, the whole deck).
- * A lick put back is put back to work by `createCardsForDeckLicks`.
- * @example await followDeckEdit(deckId, [b, a], [c], now, t) // c's new cards retired, b before a
+ * A deck was edited (`lickIds`, the whole deck in its new order): in every class it is assigned
+ * to, licks new to it become the members' cards, licks taken out retire their still-new cards (as
+ * when any source stops: cards already introduced, and every review, stay; a lick put back is
+ * put back to work), and still-new cards follow the deck's order.
+ * @example await followDeckEdit(deckId, [b, a], { added: [b], removed: [c] }, now, t)
  */
 export async function followDeckEdit(
 	deckId: string,
 	lickIds: readonly string[],
-	removed: readonly string[],
+	change: { added: readonly string[]; removed: readonly string[] },
 	now: Date,
 	transaction: Transaction
 ): Promise<void> {
-	const assignments = await Assignment.findAll({
-		where: { deckId },
-		attributes: ['id'],
-		transaction
-	});
+	const assignments = await Assignment.findAll({ where: { deckId }, transaction });
 	if (assignments.length === 0) return;
 	const ids = assignments.map((a) => a.id);
-	if (removed.length) {
-		await Card.update(
-			{ retiredAt: now, version: literal('version + 1') as unknown as number },
-			{
-				where: {
-					assignmentId: { [Op.in]: ids },
-					lickId: { [Op.in]: [...removed] },
-					state: 0,
-					introducedDay: null,
-					retiredAt: null
-				},
-				transaction
-			}
-		);
+	if (change.added.length) {
+		await createCardsForAssignments(assignments, deckId, change.added, now, transaction);
 	}
-	// A new card's place is its lick's place in the deck, its quality's slot kept. Only the
-	// position moves: the card's version (what a review compares) is left alone.
-	for (let index = 0; index < lickIds.length; index++) {
-		await getDb().query(
-			`UPDATE cards SET new_position = :base + (new_position % :slots)
-			  WHERE assignment_id IN (:ids) AND lick_id = :lickId AND state = 0
-			    AND introduced_day IS NULL AND new_position <> :base + (new_position % :slots)`,
-			{
-				replacements: {
-					base: index * QUALITY_SLOTS,
-					slots: QUALITY_SLOTS,
-					ids,
-					lickId: lickIds[index]
-				},
-				transaction
-			}
-		);
-	}
+	if (change.removed.length) await retireNewCards(ids, null, now, transaction, change.removed);
+	if (lickIds.length === 0) return;
+	// A new card's place is its lick's place in the deck, its quality's slot kept, in one
+	// statement. Only the position moves: the card's version (what a review compares) is left
+	// alone.
+	const places: Record<string, string | number> = {};
+	const cases = lickIds.map((lickId, index) => {
+		places[`lick${index}`] = lickId;
+		return `WHEN :lick${index} THEN ${index * QUALITY_SLOTS}`;
+	});
+	await getDb().query(
+		`UPDATE cards SET new_position = (CASE lick_id ${cases.join(' ')} END) + (new_position % :slots)
+		  WHERE assignment_id IN (:ids) AND lick_id IN (:lickIds) AND state = 0
+		    AND introduced_day IS NULL`,
+		{
+			replacements: { ...places, slots: QUALITY_SLOTS, ids, lickIds: [...lickIds] },
+			transaction
+		}
+	);
 }
 
 /**
- * Retire the still-new cards of the given assignments (all their learners, or only `userIds`).
+ * Retire the still-new cards of the given assignments (all their learners, or only `userIds`;
+ * all their licks, or only `lickIds`).
  * @example await retireNewCards([assignmentId], null, now, t) // number of cards retired
  */
 export async function retireNewCards(
 	assignmentIds: string[],
 	userIds: string[] | null,
 	now: Date,
-	transaction: Transaction
+	transaction: Transaction,
+	lickIds?: readonly string[]
 ): Promise<number> {
 	if (assignmentIds.length === 0) return 0;
 	const [count] = await Card.update(
@@ -204,6 +189,7 @@ export async function retireNewCards(
 			where: {
 				assignmentId: { [Op.in]: assignmentIds },
 				...(userIds ? { userId: { [Op.in]: userIds } } : {}),
+				...(lickIds ? { lickId: { [Op.in]: [...lickIds] } } : {}),
 				state: 0,
 				introducedDay: null,
 				retiredAt: null

@@ -1,6 +1,6 @@
 import { Op, type Transaction } from 'sequelize';
 import { getDb } from '../db/index';
-import { createCardsForDeckLicks, followDeckEdit } from '../classes/class-cards';
+import { followDeckEdit } from '../classes/class-cards';
 import { Assignment, Deck, DeckLick, Lick, User } from '../db/models/index';
 import { readableDeck, readableLick, readableLickSql, type Actor } from './access';
 import { deckNotFound, LibraryError } from './errors';
@@ -278,8 +278,7 @@ export async function updateDeck(
 			const added = input.lickIds.filter((lickId) => !had.has(lickId));
 			const kept = new Set(input.lickIds);
 			const removed = [...had].filter((lickId) => !kept.has(lickId));
-			await createCardsForDeckLicks(row.id, added, now, transaction);
-			await followDeckEdit(row.id, input.lickIds, removed, now, transaction);
+			await followDeckEdit(row.id, input.lickIds, { added, removed }, now, transaction);
 		}
 		const changes: Partial<{ name: string; description: string }> = {};
 		if (input.name !== undefined) changes.name = input.name;
